@@ -1,0 +1,5 @@
+"""``python -m loadscope`` runs the command line."""
+
+from .cli import entry
+
+entry()

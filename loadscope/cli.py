@@ -1,0 +1,99 @@
+"""``loadscope`` on the command line.
+
+    loadscope solve FILE [--format json|csv|table] [--units si|us] [--out PATH]
+    loadscope demo [--write FILE]
+    loadscope schema
+
+Bad input prints one clear message naming the field and exits with status 2;
+it never prints a traceback.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import sys
+from pathlib import Path
+
+from . import CAUTION
+from .errors import InputError
+
+EXIT_INPUT = 2
+
+
+def _parser() -> argparse.ArgumentParser:
+    p = argparse.ArgumentParser(prog="loadscope", description="Every load in a gear drive. " + CAUTION)
+    sub = p.add_subparsers(dest="command", required=True)
+    s = sub.add_parser("solve", help="solve a drive snapshot and print its loads")
+    s.add_argument("file", help="drive snapshot (JSON); '-' reads standard input")
+    s.add_argument("--format", choices=("json", "csv", "table"), default="table")
+    s.add_argument("--units", choices=("si", "us"), default="si")
+    s.add_argument("--out", help="write to this file instead of standard output")
+    d = sub.add_parser("demo", help="solve the built-in demo drive, or write its snapshot")
+    d.add_argument("--write", metavar="FILE", help="write the demo snapshot to FILE and stop")
+    d.add_argument("--units", choices=("si", "us"), default="si")
+    sub.add_parser("schema", help="print the JSON Schema of the drive snapshot")
+    return p
+
+
+def _emit(text: str, out: str | None) -> None:
+    if out:
+        Path(out).write_text(text, encoding="utf-8")
+        print(f"wrote {out}", file=sys.stderr)
+    else:
+        sys.stdout.write(text)
+
+
+def _solve_and_format(drive, fmt: str, units: str) -> str:
+    from . import report
+    from .kernel.solve import solve
+
+    result = solve(drive)
+    if fmt == "json":
+        return report.to_json(result, units) + "\n"
+    if fmt == "csv":
+        return report.to_csv(result, units)
+    return report.to_text(result, units)
+
+
+def main(argv: list[str] | None = None) -> int:
+    """Run the command line; returns the exit status."""
+    args = _parser().parse_args(argv)
+    from . import spec
+
+    try:
+        if args.command == "schema":
+            sys.stdout.write(json.dumps(spec.snapshot_schema(), indent=2) + "\n")
+        elif args.command == "demo":
+            if args.write:
+                Path(args.write).write_text(spec.dump_snapshot(spec.demo_snapshot()) + "\n", encoding="utf-8")
+                print(f"wrote {args.write}", file=sys.stderr)
+            else:
+                drive = spec.drive_from_snapshot(spec.demo_snapshot())
+                sys.stdout.write(_solve_and_format(drive, "table", args.units))
+        elif args.command == "solve":
+            if args.file == "-":
+                source: object = sys.stdin.read()
+            else:
+                path = Path(args.file)
+                if not path.is_file():
+                    raise InputError("FILE", f"no such file: {args.file}", "a readable snapshot file")
+                source = path
+            drive = spec.load_snapshot(source)  # type: ignore[arg-type]
+            _emit(_solve_and_format(drive, args.format, args.units), args.out)
+    except InputError as exc:
+        print(f"loadscope: input error: {exc}", file=sys.stderr)
+        return EXIT_INPUT
+    except OSError as exc:
+        print(f"loadscope: {exc.strerror or exc}: {exc.filename or ''}".rstrip(": "), file=sys.stderr)
+        return 1
+    return 0
+
+
+def entry() -> None:
+    """Console-script entry point."""
+    sys.exit(main())
+
+
+if __name__ == "__main__":
+    entry()

@@ -1,0 +1,92 @@
+"""Validity checks shared by the kernel: every range written down is checked.
+
+Each check raises :class:`loadscope.InputError` naming the field and the
+accepted range, and returns the value so checks read as assignments.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Sequence
+
+import numpy as np
+
+from ..errors import InputError
+
+# Ranges the trade uses (common practice): normal pressure angles run from
+# 14.5 deg (old standard) to 25 deg (heavy duty); 10..35 deg keeps special
+# designs in and nonsense out. Helix angles above 45 deg are not built.
+PRESSURE_ANGLE_RANGE = (math.radians(10.0), math.radians(35.0))
+HELIX_ANGLE_RANGE = (0.0, math.radians(45.0))
+
+
+def finite(value: float, path: str, unit: str = "") -> float:
+    """Reject NaN and infinities."""
+    try:
+        v = float(value)
+    except (TypeError, ValueError):
+        raise InputError(path, f"must be a number, got {value!r}", _unit_range("finite", unit)) from None
+    if not math.isfinite(v):
+        raise InputError(path, f"must be finite, got {v}", _unit_range("finite", unit))
+    return v
+
+
+def positive(value: float, path: str, unit: str = "") -> float:
+    """Require a finite value > 0."""
+    v = finite(value, path, unit)
+    if v <= 0.0:
+        raise InputError(path, f"must be positive, got {_fmt(v, unit)}", _unit_range("> 0", unit))
+    return v
+
+
+def non_negative(value: float, path: str, unit: str = "") -> float:
+    """Require a finite value >= 0."""
+    v = finite(value, path, unit)
+    if v < 0.0:
+        raise InputError(path, f"must not be negative, got {_fmt(v, unit)}", _unit_range(">= 0", unit))
+    return v
+
+
+def within(value: float, lo: float, hi: float, path: str, unit: str = "", *, degrees: bool = False) -> float:
+    """Require lo <= value <= hi (angles shown in degrees when ``degrees``)."""
+    v = finite(value, path, unit)
+    if not lo <= v <= hi:
+        if degrees:
+            shown, rng = f"{math.degrees(v):.6g} deg", f"{math.degrees(lo):g} to {math.degrees(hi):g} deg"
+        else:
+            shown, rng = _fmt(v, unit), f"{lo:g} to {hi:g}" + (f" {unit}" if unit else "")
+        raise InputError(path, f"is out of range, got {shown}", rng)
+    return v
+
+
+def vector3(value: Sequence[float], path: str, unit: str = "") -> tuple[float, float, float]:
+    """A finite 3-vector as a tuple of floats."""
+    if len(value) != 3:
+        raise InputError(path, f"must have 3 components, got {len(value)}", "[x, y, z]")
+    return (finite(value[0], f"{path}[0]", unit), finite(value[1], f"{path}[1]", unit),
+            finite(value[2], f"{path}[2]", unit))
+
+
+def unit_vector(value: Sequence[float], path: str) -> tuple[float, float, float]:
+    """Normalise a non-zero 3-vector."""
+    v = np.array(vector3(value, path), dtype=float)
+    n = float(np.linalg.norm(v))
+    if n < 1e-12:
+        raise InputError(path, "must be a non-zero direction", "any non-zero [x, y, z]")
+    v = v / n
+    return (float(v[0]), float(v[1]), float(v[2]))
+
+
+def all_finite(array: np.ndarray, what: str) -> np.ndarray:
+    """Guard a kernel result: the kernel never returns NaN or inf silently."""
+    if not np.all(np.isfinite(array)):
+        raise InputError("", f"{what} is not finite; the inputs leave it undefined")
+    return array
+
+
+def _fmt(v: float, unit: str) -> str:
+    return f"{v:.6g} {unit}".rstrip()
+
+
+def _unit_range(rng: str, unit: str) -> str:
+    return f"{rng} {unit}".rstrip()

@@ -1,0 +1,1 @@
+"""Arrives with its own issue (see DEVELOPERS.md)."""
