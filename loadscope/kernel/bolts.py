@@ -13,7 +13,9 @@ group centroid. Every bolt is taken with the same area and stiffness.
 * Axial, tipping-edge variant: the housing tips about a given edge line of
   its foot; the overturning moment about that edge is taken by the bolts on
   the far side, each in proportion to its distance from the edge (the edge
-  takes the compression); the normal force is shared equally.
+  takes the compression); the normal force is shared equally, and the
+  moment of those equal shares about the edge counts toward the balance
+  (so the edge contact is left a force only, no moment about the edge).
 
 Bolt tension is positive when the bolt pulls the housing toward the
 foundation (the bolt's force on the housing points along -n).
@@ -148,8 +150,11 @@ def bolt_loads(positions: ArrayLike, normal: ArrayLike, force: ArrayLike, moment
         side = cross(nrm, ed)            # in-plane, away from the edge
         d = (p - e0) @ side
         # A bolt tension t at distance d gives the housing a moment -t d about
-        # the edge direction (side x n = edge direction).
-        m_edge = float((m + cross(c - e0, f)) @ ed)
+        # the edge direction (side x n = edge direction). The bolts take the
+        # moment about the edge that their shear and equal normal shares leave
+        # over (a line contact along the edge carries no moment about it).
+        base = shear + np.outer(np.full(nb, f_n / nb), nrm)
+        m_edge = float((m + cross(c - e0, f) - cross(p - e0, base).sum(axis=0)) @ ed)
         far = d > 1e-12
         denom = float((d[far] ** 2).sum())
         k = max(-m_edge / denom, 0.0) if denom > 0.0 else 0.0

@@ -69,10 +69,15 @@ def vector3(value: Sequence[float], path: str, unit: str = "") -> tuple[float, f
 
 def unit_vector(value: Sequence[float], path: str) -> tuple[float, float, float]:
     """Normalise a non-zero 3-vector."""
-    v = np.array(vector3(value, path), dtype=float)
+    t = vector3(value, path)
+    v = np.array(t, dtype=float)
     n = float(np.linalg.norm(v))
     if n < 1e-12:
         raise InputError(path, "must be a non-zero direction", "any non-zero [x, y, z]")
+    if abs(n - 1.0) <= 1e-15:
+        # Already a unit vector (to round-off): keep it as given, so that
+        # normalising is idempotent and a saved model reloads bit-exact.
+        return t
     v = v / n
     return (float(v[0]), float(v[1]), float(v[2]))
 

@@ -108,7 +108,8 @@ def mesh_forces(torque: ArrayLike, pitch_radius: ArrayLike, pressure_angle: Arra
         raise InputError("pitch_radius", f"must be positive, got {float(r[r <= 0].flat[0]):.6g} m", "> 0 m")
     _check_range(phi, *checks.PRESSURE_ANGLE_RANGE, "pressure_angle", "deg", np.degrees(1.0))
     _check_range(psi, *checks.HELIX_ANGLE_RANGE, "helix_angle", "deg", np.degrees(1.0))
-    wt = t / r
+    # all four parts take the broadcast shape of all inputs (W_t alone ignores the angles)
+    wt = np.broadcast_to(t / r, np.broadcast_shapes(t.shape, r.shape, phi.shape, psi.shape)).copy()
     cos_psi = np.cos(psi)
     radial = wt * np.tan(phi) / cos_psi
     axial = wt * np.tan(psi)
@@ -154,7 +155,7 @@ def bevel_mesh_forces(torque: ArrayLike, mean_radius: ArrayLike, pressure_angle:
         raise InputError("mean_radius", f"must be positive, got {float(r[r <= 0].flat[0]):.6g} m", "> 0 m")
     _check_range(phi, *checks.PRESSURE_ANGLE_RANGE, "pressure_angle", "deg", np.degrees(1.0))
     _check_range(gamma, np.radians(1.0), np.radians(89.0), "cone_angle", "deg", np.degrees(1.0))
-    wt = t / r
+    wt = np.broadcast_to(t / r, np.broadcast_shapes(t.shape, r.shape, phi.shape, gamma.shape)).copy()
     sep = wt * np.tan(phi)
     return MeshForces(tangential=wt, radial=sep * np.cos(gamma), axial=sep * np.sin(gamma),
                       total=wt / np.cos(phi))

@@ -12,7 +12,9 @@ left of the cut (s_i < s, reactions included):
 * bending, a-e1    M1(s) =  sum f_1 (s - s_i) - sum m_2
 * bending, a-e2    M2(s) =  sum f_2 (s - s_i) + sum m_1
 * torque           T(s)  =  sum m_a
-* Euler-Bernoulli: v1'' = M1 / (E I),  v2'' = M2 / (E I),  phi' = T / (G J)
+* Euler-Bernoulli: v1'' = M1 / (E I),  v2'' = M2 / (E I),  phi' = -T / (G J)
+  with phi the twist about +a (right-hand rule): T sums the moments on the
+  part left of the cut, so the cut face of that part carries -T
 
 so a beam on two supports under a load toward -e1 has M1 > 0 (sagging) and
 deflects toward -e1. Supports are simple (radial, no moment); they take axial
@@ -357,12 +359,12 @@ def _axial_reactions(shaft: Shaft, where: str, st: FloatArray, f: FloatArray, su
 def _diagrams(st: FloatArray, left: FloatArray, right: FloatArray, ei_sec: FloatArray, gj_sec: FloatArray,
               sec_l: NDArray[np.intp], sec_r: NDArray[np.intp], h: FloatArray, bc: FloatArray,
               samples: int) -> tuple[dict[str, FloatArray], FloatArray, FloatArray]:
-    stiff_l = np.column_stack([ei_sec[sec_l], ei_sec[sec_l], gj_sec[sec_l]])
-    stiff_r = np.column_stack([ei_sec[sec_r], ei_sec[sec_r], gj_sec[sec_r]])
+    stiff_l = np.column_stack([ei_sec[sec_l], ei_sec[sec_l], -gj_sec[sec_l]])
+    stiff_r = np.column_stack([ei_sec[sec_r], ei_sec[sec_r], -gj_sec[sec_r]])
     kl = left[:, [3, 4, 5]] / stiff_l
     kr = right[:, [3, 4, 5]] / stiff_r
     theta, v = _integrate(kl, kr, h)
-    # Third column: phi' = T / GJ, so its "slope" is the twist phi (its "value" is unused).
+    # Third column: phi' = -T / GJ, so its "slope" is the twist phi (its "value" is unused).
     # Rigid-body line so that v = 0 at the outermost supports (stations hold them exactly).
     ia, ib = np.searchsorted(st, bc[0] - _MERGE), np.searchsorted(st, bc[1] - _MERGE)
     slope = (v[ib, :2] - v[ia, :2]) / (st[ib] - st[ia])
