@@ -234,14 +234,16 @@ class Shaft:
         checks.positive(self.E, f"{p}.E", "Pa")
         checks.positive(self.G, f"{p}.G", "Pa")
         length = self.length
-        for kind, items in (("supports", self.supports), ("gears", self.gears), ("pulleys", self.pulleys),
-                            ("couplings", self.couplings), ("loads", self.loads)):
+        groups: tuple[tuple[str, tuple[Element, ...]], ...] = (
+            ("supports", self.supports), ("gears", self.gears), ("pulleys", self.pulleys),
+            ("couplings", self.couplings), ("loads", self.loads))
+        for kind, items in groups:
             for i, item in enumerate(items):
                 if not -1e-12 <= item.at <= length + 1e-12:
                     where = item.path or f"{p}.{kind}[{i}]"
                     raise InputError(f"{where}.at", f"lies off the shaft, at {item.at:.6g} m",
                                      f"0 to {length:.6g} m")
-        ids = [e.id for e in (*self.supports, *self.gears, *self.pulleys, *self.couplings, *self.loads)]
+        ids = [e.id for e in self.elements()]
         dup = sorted({i for i in ids if ids.count(i) > 1})
         if dup:
             raise InputError(p, f"element ids must be unique on a shaft, repeated: {', '.join(dup)}",
@@ -252,12 +254,20 @@ class Shaft:
         """Overall length [m]."""
         return float(sum(s.length for s in self.sections))
 
-    def element(self, ident: str) -> Support | Gear | Pulley | Coupling | PointLoad | None:
+    def elements(self) -> list[Element]:
+        """Every element on the shaft: supports, gears, pulleys, couplings, loads."""
+        out: list[Element] = [*self.supports, *self.gears, *self.pulleys, *self.couplings, *self.loads]
+        return out
+
+    def element(self, ident: str) -> Element | None:
         """The element with this id, or None."""
-        for e in (*self.supports, *self.gears, *self.pulleys, *self.couplings, *self.loads):
+        for e in self.elements():
             if e.id == ident:
                 return e
         return None
+
+
+Element = Support | Gear | Pulley | Coupling | PointLoad
 
 
 @dataclass(frozen=True)

@@ -315,7 +315,7 @@ def _axial_reactions(shaft: Shaft, where: str, st: FloatArray, f: FloatArray, su
         # Axial loads that balance among themselves still load two or more
         # axially held supports (compatibility), so only skip the split when
         # at most one support takes axial load.
-        ok_modes = ("locating", "positive", "negative")
+        ok_modes: tuple[str, ...] = ("locating", "positive", "negative")
     else:
         ok_modes = ("locating", "positive") if need > 0 else ("locating", "negative")
     cand = [i for i, sp in enumerate(shaft.supports) if sp.axial in ok_modes]

@@ -16,7 +16,7 @@ from numpy.typing import NDArray
 from ..errors import InputError
 from . import gears as gear_forces
 from .bolts import BoltLoads, bolt_loads
-from .model import Drive, Shaft
+from .model import Coupling, Drive, Gear, Pulley, Shaft
 from .shafts import ShaftSolution, local_frame, solve_shaft
 from .train import MeshFlow, TrainResult, mesh_geometry, solve_train
 from .vec import cross
@@ -203,7 +203,8 @@ def _actions(drive: Drive, train: TrainResult, teeth: list[ToothForce]) -> list[
     for i, sh in enumerate(drive.shafts):
         axis = np.asarray(sh.axis, dtype=float)
         origin = np.asarray(sh.origin, dtype=float)
-        for el in (*sh.gears, *sh.pulleys, *sh.couplings):
+        heavy: list[Gear | Pulley | Coupling] = [*sh.gears, *sh.pulleys, *sh.couplings]
+        for el in heavy:
             if el.weight > 0.0:
                 acts[i].append(Action(sh.id, el.at, "weight", el.id, origin + el.at * axis, el.weight * down, zero))
         for ld in sh.loads:

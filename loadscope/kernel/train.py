@@ -264,7 +264,7 @@ def _port_index(drive: Drive, port: Port, where: str) -> int:
         raise InputError(f"{where}.shaft", f"no shaft with id {port.shaft!r}", ", ".join(ids))
     i = ids.index(port.shaft)
     el = drive.shafts[i].element(port.element)
-    names = [e.id for e in (*drive.shafts[i].couplings, *drive.shafts[i].pulleys)]
+    names = [e.id for e in drive.shafts[i].couplings] + [e.id for e in drive.shafts[i].pulleys]
     if el is None or el.id not in names:
         raise InputError(f"{where}.element", f"no coupling or pulley {port.element!r} on shaft {port.shaft!r}",
                          ", ".join(names) or "add a coupling or pulley")
@@ -345,7 +345,9 @@ def solve_train(drive: Drive, geometry: tuple[MeshGeometry, ...] | None = None) 
 
     flows = []
     for j in order[1:]:
-        g, side = parent[j]
+        par = parent[j]
+        assert par is not None          # every shaft but the input has a parent mesh
+        g, side = par
         driver = side
         p_mesh = demand[j] * p_out / g.efficiency
         v_pitch = abs(speed[g.shaft[driver]]) * g.radius[driver]

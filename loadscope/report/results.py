@@ -171,7 +171,7 @@ def tables(result: DriveResult, units: str = "si") -> dict[str, Any]:
 
 
 def _fmt_table(headers: list[str], body: list[list[Any]]) -> str:
-    cells = [[h for h in headers]] + [[(f"{c:,.4g}" if isinstance(c, float) else str(c)) for c in r] for r in body]
+    cells = [list(headers)] + [[(f"{c + 0.0:,.4g}" if isinstance(c, float) else str(c)) for c in r] for r in body]
     widths = [max(len(r[i]) for r in cells) for i in range(len(headers))]
     lines = ["  ".join(c.rjust(w) if j else c.ljust(w) for j, (c, w) in enumerate(zip(r, widths))) for r in cells]
     lines.insert(1, "  ".join("-" * w for w in widths))
