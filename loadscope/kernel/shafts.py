@@ -27,8 +27,8 @@ discretisation error).
 
 from __future__ import annotations
 
-from dataclasses import dataclass
-from functools import lru_cache
+from dataclasses import dataclass, field
+from functools import cached_property, lru_cache
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
@@ -122,8 +122,12 @@ class ShaftSolution:
     docstring) unless a name says global.
 
     ``stations`` [m] are the sorted distinct load/support/step positions;
-    ``diagram`` maps names to sample arrays along ``diagram["s"]``, which
-    repeats each station for the values just left and right of it.
+    ``left`` and ``right`` hold N, V1, V2, M1, M2, T (columns, see
+    QUANTITIES) just left and right of each station, which fixes every
+    diagram exactly (they are piecewise constant or linear between
+    stations). ``diagram`` (computed on first use) maps names to sample
+    arrays along ``diagram["s"]``, which repeats each station for the values
+    just left and right of it and adds interior points for the curves.
     """
 
     shaft_id: str
@@ -132,11 +136,24 @@ class ShaftSolution:
     reactions_local: FloatArray      # (k, 3): axial, e1, e2 [N]
     reactions_global: FloatArray     # (k, 3) [N]
     stations: FloatArray
-    diagram: dict[str, FloatArray]
+    left: FloatArray                 # (n_stations, 6)
+    right: FloatArray                # (n_stations, 6)
     deflection_at: FloatArray        # (n_stations, 2) v1, v2 [m]
     slope_at: FloatArray             # (n_stations, 2) [rad]
+    twist_at: FloatArray             # (n_stations,) phi [rad], 0 at the shaft's start
     residual_force: FloatArray       # global [N]
     residual_moment: FloatArray      # global, about the shaft origin [N*m]
+    curvature_left: FloatArray = field(repr=False, default_factory=lambda: np.zeros((0, 3)))
+    curvature_right: FloatArray = field(repr=False, default_factory=lambda: np.zeros((0, 3)))
+    samples: int = 64
+
+    @cached_property
+    def diagram(self) -> dict[str, FloatArray]:
+        """Sampled diagrams: s, N, V1, V2, M1, M2, T, M (resultant), v1, v2,
+        deflection, theta1, theta2, phi."""
+        theta = np.column_stack([self.slope_at, self.twist_at])
+        return _sample(self.stations, self.left, self.right, self.curvature_left, self.curvature_right,
+                       self.deflection_at, theta, self.samples)
 
 
 def _sections(shaft: Shaft) -> tuple[FloatArray, FloatArray, FloatArray, FloatArray]:
@@ -258,8 +275,7 @@ def solve_shaft(shaft: Shaft, s: FloatArray, f_global: FloatArray, m_global: Flo
 
     f_all = f + (idx_sup[None, :] == np.arange(n)[:, None]).astype(float) @ reactions
     left, right = _left_sums(st, f_all, m)
-    diagram, v_at, th_at = _diagrams(st, left, right, ei_sec, gj_sec, sec_l, sec_r, h, sup_s[order[[0, -1]]],
-                                     samples)
+    kl, kr, v_at, th_at = _deflections(st, left, right, ei_sec, gj_sec, sec_l, sec_r, h, sup_s[order[[0, -1]]])
 
     r_glob = reactions @ frame
     origin = np.asarray(shaft.origin, dtype=float)
@@ -268,8 +284,10 @@ def solve_shaft(shaft: Shaft, s: FloatArray, f_global: FloatArray, m_global: Flo
     res_f = f_all_g.sum(axis=0)
     res_m = (cross(pts - origin, f_all_g) + m @ frame).sum(axis=0)
     return ShaftSolution(shaft_id=shaft.id, frame=frame, support_ids=tuple(sp.id for sp in supports),
-                         reactions_local=reactions, reactions_global=r_glob, stations=st, diagram=diagram,
-                         deflection_at=v_at, slope_at=th_at, residual_force=res_f, residual_moment=res_m)
+                         reactions_local=reactions, reactions_global=r_glob, stations=st, left=left, right=right,
+                         deflection_at=v_at[:, :2], slope_at=th_at[:, :2], twist_at=th_at[:, 2],
+                         residual_force=res_f, residual_moment=res_m, curvature_left=kl, curvature_right=kr,
+                         samples=samples)
 
 
 def _transverse_reactions(st: FloatArray, f: FloatArray, m: FloatArray, sup_s: FloatArray,
@@ -356,9 +374,12 @@ def _axial_reactions(shaft: Shaft, where: str, st: FloatArray, f: FloatArray, su
         cand = [c for c in cand if c not in wrong]
 
 
-def _diagrams(st: FloatArray, left: FloatArray, right: FloatArray, ei_sec: FloatArray, gj_sec: FloatArray,
-              sec_l: NDArray[np.intp], sec_r: NDArray[np.intp], h: FloatArray, bc: FloatArray,
-              samples: int) -> tuple[dict[str, FloatArray], FloatArray, FloatArray]:
+def _deflections(st: FloatArray, left: FloatArray, right: FloatArray, ei_sec: FloatArray, gj_sec: FloatArray,
+                 sec_l: NDArray[np.intp], sec_r: NDArray[np.intp], h: FloatArray,
+                 bc: FloatArray) -> tuple[FloatArray, FloatArray, FloatArray, FloatArray]:
+    """Curvatures (k1, k2, twist rate) just left/right of each station, and
+    deflection v (n, 3) and slope (n, 3) at each station; the third column of
+    the slope is the twist phi."""
     stiff_l = np.column_stack([ei_sec[sec_l], ei_sec[sec_l], -gj_sec[sec_l]])
     stiff_r = np.column_stack([ei_sec[sec_r], ei_sec[sec_r], -gj_sec[sec_r]])
     kl = left[:, [3, 4, 5]] / stiff_l
@@ -370,8 +391,14 @@ def _diagrams(st: FloatArray, left: FloatArray, right: FloatArray, ei_sec: Float
     slope = (v[ib, :2] - v[ia, :2]) / (st[ib] - st[ia])
     v[:, :2] -= v[ia, :2] + np.outer(st - st[ia], slope)
     theta[:, :2] -= slope
+    return kl, kr, v, theta
 
-    # Samples: each station twice (left, right) and interior points between.
+
+def _sample(st: FloatArray, left: FloatArray, right: FloatArray, kl: FloatArray, kr: FloatArray, v: FloatArray,
+            theta: FloatArray, samples: int) -> dict[str, FloatArray]:
+    """Each station twice (left, right) and interior points between; the
+    curves between stations are the exact polynomials of the integration."""
+    h = np.diff(st)
     length = st[-1] - st[0]
     n_sub = np.maximum(1, np.ceil(h / max(length, 1e-300) * samples)).astype(int)
     seg = np.repeat(np.arange(h.size), n_sub - 1)
@@ -380,7 +407,7 @@ def _diagrams(st: FloatArray, left: FloatArray, right: FloatArray, ei_sec: Float
     tt = (frac * h[seg])[:, None]
     k0, k1 = kr[:-1][seg], kl[1:][seg]
     dk = (k1 - k0) / hs
-    v_in = v[seg] + theta[seg] * tt + k0 * tt**2 / 2 + dk * tt**3 / 6
+    v_in = v[seg] + theta[seg, :2] * tt + k0[:, :2] * tt**2 / 2 + dk[:, :2] * tt**3 / 6
     th_in = theta[seg] + k0 * tt + dk * tt**2 / 2
     q_in = right[:-1][seg] + (left[1:][seg] - right[:-1][seg]) * frac[:, None]
 
@@ -388,7 +415,7 @@ def _diagrams(st: FloatArray, left: FloatArray, right: FloatArray, ei_sec: Float
     order = np.argsort(s_samp, kind="stable")
     both_q = np.stack([left, right], axis=1).reshape(-1, 6)
     q = np.vstack([both_q, q_in])[order]
-    vv = np.vstack([np.repeat(v[:, :2], 2, axis=0), v_in[:, :2]])[order]
+    vv = np.vstack([np.repeat(v, 2, axis=0), v_in])[order]
     th = np.vstack([np.repeat(theta, 2, axis=0), th_in])[order]
     diag = {"s": s_samp[order]}
     for j, name in enumerate(QUANTITIES):
@@ -397,4 +424,4 @@ def _diagrams(st: FloatArray, left: FloatArray, right: FloatArray, ei_sec: Float
     diag["v1"], diag["v2"] = vv[:, 0], vv[:, 1]
     diag["theta1"], diag["theta2"], diag["phi"] = th[:, 0], th[:, 1], th[:, 2]
     diag["deflection"] = np.hypot(vv[:, 0], vv[:, 1])
-    return diag, v[:, :2], theta[:, :2]
+    return diag
