@@ -21,7 +21,7 @@ def _fmt(v: float, unit: str) -> str:
     return f"{v:.6g} {unit}".rstrip()
 
 
-def _where(arr: FloatArray, bad: NDArray[np.bool_]) -> tuple[float, str]:
+def first_bad(arr: FloatArray, bad: NDArray[np.bool_]) -> tuple[float, str]:
     """The first offending value and, for arrays, where it sits."""
     idx = np.unravel_index(int(np.flatnonzero(bad)[0]), arr.shape)
     v = float(arr[idx])
@@ -44,7 +44,7 @@ def finite(value: ArrayLike, path: str, unit: str = "") -> FloatArray:
                          f"finite {unit}".rstrip()) from None
     bad = ~np.isfinite(arr)
     if bad.any():
-        v, at = _where(arr, bad)
+        v, at = first_bad(arr, bad)
         raise InputError(path, f"must be finite, got {v}{at}", f"finite {unit}".rstrip())
     return arr
 
@@ -60,7 +60,7 @@ def positive(value: ArrayLike, path: str, unit: str = "") -> FloatArray:
     arr = finite(value, path, unit)
     bad = arr <= 0.0
     if bad.any():
-        v, at = _where(arr, bad)
+        v, at = first_bad(arr, bad)
         raise InputError(path, f"must be positive, got {_fmt(v, unit)}{at}", f"> 0 {unit}".rstrip())
     return arr
 
@@ -70,7 +70,7 @@ def non_negative(value: ArrayLike, path: str, unit: str = "") -> FloatArray:
     arr = finite(value, path, unit)
     bad = arr < 0.0
     if bad.any():
-        v, at = _where(arr, bad)
+        v, at = first_bad(arr, bad)
         raise InputError(path, f"must not be negative, got {_fmt(v, unit)}{at}", f">= 0 {unit}".rstrip())
     return arr
 
@@ -91,7 +91,7 @@ def within(value: ArrayLike, lo: float, hi: float, path: str, unit: str = "", *,
     above = arr >= hi if hi_open else arr > hi
     bad = below | above
     if bad.any():
-        v, at = _where(arr, bad)
+        v, at = first_bad(arr, bad)
         u = f" {unit}" if unit else ""
         rng = f"{lo:g}{u} {'<' if lo_open else '<='} value {'<' if hi_open else '<='} {hi:g}{u}"
         if note:
