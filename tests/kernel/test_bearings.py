@@ -182,8 +182,8 @@ def test_min_rating_round_trip(c, ratio, kind, pct, a_iso):
 # --- duty cycles -----------------------------------------------------------
 
 @FAST
-@given(c=st.floats(5e3, 5e5), p=st.floats(100.0, 5e3), w=st.floats(1.0, 500.0), kind=st.sampled_from(["ball", "roller"]),
-       pct=st.sampled_from([90, 95, 99, 99.95]))
+@given(c=st.floats(5e3, 5e5), p=st.floats(100.0, 5e3), w=st.floats(1.0, 500.0),
+       kind=st.sampled_from(["ball", "roller"]), pct=st.sampled_from([90, 95, 99, 99.95]))
 def test_duty_cycle_of_one_case_is_the_single_case_life(c, p, w, kind, pct):
     r = b.duty_cycle_life(c, [p], [w], [1.0], kind, pct / 100.0)
     single = b.modified_rating_life(c, p, kind, pct / 100.0)
