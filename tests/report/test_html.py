@@ -210,3 +210,15 @@ def test_bad_units_and_missing_plotly(result, monkeypatch):
     monkeypatch.setitem(sys.modules, "plotly.offline", None)
     with pytest.raises(ImportError, match=r"pip install 'loadscope\[report\]'"):
         to_html(result)
+
+
+def test_without_housing_and_with_markup_in_names():
+    import dataclasses
+
+    snap = demo_snapshot()
+    del snap["housing"]
+    drive = dataclasses.replace(drive_from_snapshot(snap), name='<script>alert("x")</script> & co')
+    text = to_html(solve(drive))
+    p = parse(text)
+    assert p.errors == [] and "table-bolts" not in p.tables and "table-reactions" in p.tables
+    assert "<script>alert" not in text and "&lt;script&gt;alert(&quot;x&quot;)&lt;/script&gt; &amp; co" in text
