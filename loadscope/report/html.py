@@ -23,6 +23,7 @@ from __future__ import annotations
 import html
 import math
 from collections.abc import Iterable, Mapping, Sequence
+from dataclasses import dataclass
 from datetime import UTC, datetime
 from typing import Any
 
@@ -76,6 +77,7 @@ caption {{ text-align: left; color: var(--faint); padding-bottom: .2rem; }}
 th, td {{ border-bottom: 1px solid var(--grid); padding: .22rem .6rem; text-align: right; vertical-align: top; }}
 th {{ background: var(--plot); font-weight: 600; }}
 th:first-child, td:first-child, td.text {{ text-align: left; }}
+td[data-value] {{ white-space: nowrap; }}
 tr.fail td {{ background: #FBE3DE; }} tr.watch td {{ background: #FDF3D8; }}
 figure {{ margin: 1rem 0 2rem; }} figcaption {{ color: var(--faint); margin-top: .3rem; }}
 dl.inputs {{ display: grid; grid-template-columns: max-content 1fr; gap: .15rem 1rem; }}
@@ -96,8 +98,18 @@ def _e(text: Any) -> str:
     return html.escape(str(text), quote=True)
 
 
+@dataclass(frozen=True)
+class _Shown:
+    """A number shown in its own words (a margin in per cent), value kept exactly."""
+
+    value: float
+    text: str
+
+
 def _cell(value: Any) -> str:
     """A table cell: numbers formatted for reading, the exact value kept in data-value."""
+    if isinstance(value, _Shown):
+        return f'<td data-value="{value.value!r}">{_e(value.text)}</td>'
     if isinstance(value, (float, int, np.floating, np.integer)) and not isinstance(value, bool):
         v = float(value)
         if not math.isfinite(v):
@@ -263,13 +275,12 @@ def _figures(result: DriveResult, units: str) -> str:
 MARGIN_COLUMNS = ("kind", "component", "at", "check", "value", "allowable", "unit", "margin", "status", "method")
 
 
-def _margin_text(m: Any) -> str:
+def _margin(m: Any) -> _Shown | None:
     if m is None:
-        return ""
+        return None
     m = float(m)
-    if math.isinf(m):
-        return "inf"
-    return "> +999 %" if m > 9.99 else f"{m * 100:+.1f} %"
+    text = "inf" if math.isinf(m) else "> +999 %" if m > 9.99 else f"{m * 100:+.1f} %"
+    return _Shown(m, text)
 
 
 def margins_section(margin_tables: Mapping[str, Sequence[Mapping[str, Any]]], units: str = "si") -> str:
@@ -283,7 +294,7 @@ def margins_section(margin_tables: Mapping[str, Sequence[Mapping[str, Any]]], un
     length = label(units, "length")
     for name, rows in margin_tables.items():
         heads = [f"at [{length}]" if c == "at" else c for c in MARGIN_COLUMNS]
-        body = [[_margin_text(r.get(c)) if c == "margin" else r.get(c) for c in MARGIN_COLUMNS] for r in rows]
+        body = [[_margin(r.get("margin")) if c == "margin" else r.get(c) for c in MARGIN_COLUMNS] for r in rows]
         classes = [str(r.get("status", "")) for r in rows]
         ident = "margins-" + "".join(ch if ch.isalnum() else "-" for ch in str(name))
         out.append(f"<h3>{_e(name)}</h3>")
@@ -301,7 +312,8 @@ def _ratings_tables(ratings: Any, units: str) -> dict[str, list[dict[str, Any]]]
 # --------------------------------------------------------------------------- page
 
 def _methods(extra: Iterable[str], units: str) -> str:
-    rated = sorted({m for m in extra if m})
+    # A rating's method reads "method, source; details of this part": list each method once.
+    rated = sorted({m.split(";")[0].strip() for m in extra if m})
     out = ['<h2 id="methods">Methods and sources</h2>',
            _table(["topic", "method", "source"], [list(r) for r in LOAD_METHODS], "how the loads are found")]
     if rated:

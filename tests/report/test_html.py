@@ -192,6 +192,7 @@ def test_margins_section_renders_rows():
     t = p.tables["margins-rated"]
     assert [h for h, _ in t[0]][:3] == ["kind", "component", "at [mm]"]
     assert [c for c, _ in t[1]][7:9] == ["-95.5 %", "fail"] and t[2][7][0] == "inf"
+    assert float(t[1][7][1]) == -0.955 and float(t[1][4][1]) == 900.0      # exact values kept
     assert 'class="fail"' in text and "Nothing to rate" in text
 
 
@@ -201,6 +202,9 @@ def test_ratings_render_when_given(result):
     p = parse(to_html(result, ratings=ratings))
     assert any(k.startswith("margins-") for k in p.tables)
     assert "Rating methods used in the margins" in " ".join(p.text)
+    text = to_html(result, ratings=ratings)
+    listed = re.findall(r"<li>([^<]*)</li>", text[text.index("Rating methods used"):])
+    assert listed and len(listed) == len(set(listed)) and not any(";" in m for m in listed)
 
 
 def test_bad_units_and_missing_plotly(result, monkeypatch):
