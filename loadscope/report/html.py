@@ -317,7 +317,8 @@ def _methods(extra: Iterable[str], units: str) -> str:
     out = ['<h2 id="methods">Methods and sources</h2>',
            _table(["topic", "method", "source"], [list(r) for r in LOAD_METHODS], "how the loads are found")]
     if rated:
-        out.append("<h3>Rating methods used in the margins</h3><ul>"
+        out.append("<h3>Rating methods used in the margins</h3><p>Each method once; the margins tables give "
+                   "every part's details and the source of its limit.</p><ul>"
                    + "".join(f"<li>{_e(m)}</li>" for m in rated) + "</ul>")
     out.append("<p>Display units: " + _e(", ".join(f"{k} {v[0]}" for k, v in system(units).items())) + ".</p>")
     return "\n".join(out)

@@ -10,6 +10,7 @@ their rows, and a missing plotly gives a clear ImportError.
 
 from __future__ import annotations
 
+import html
 import re
 import sys
 from html.parser import HTMLParser
@@ -203,7 +204,7 @@ def test_ratings_render_when_given(result):
     assert any(k.startswith("margins-") for k in p.tables)
     assert "Rating methods used in the margins" in " ".join(p.text)
     text = to_html(result, ratings=ratings)
-    listed = re.findall(r"<li>([^<]*)</li>", text[text.index("Rating methods used"):])
+    listed = [html.unescape(m) for m in re.findall(r"<li>([^<]*)</li>", text[text.index("Rating methods used"):])]
     assert listed and len(listed) == len(set(listed)) and not any(";" in m for m in listed)
 
 
