@@ -350,9 +350,14 @@ class Fastener:
     def strength(self):  # -> fasteners.BoltStrength (imported late: keeps this module light)
         """The minimum strengths of the class at this diameter."""
         from . import fasteners
-        if self.standard == "iso_898_1":
-            return fasteners.iso_property_class(self.grade, self.diameter, self.path)
-        return fasteners.sae_grade(self.grade, self.diameter, self.path)
+        try:
+            if self.standard == "iso_898_1":
+                return fasteners.iso_property_class(self.grade, self.diameter, self.path)
+            return fasteners.sae_grade(self.grade, self.diameter, self.path)
+        except InputError as exc:
+            if exc.path.endswith((".property_class", ".grade")):      # the snapshot calls it grade
+                raise InputError(f"{self.path}.grade", exc.problem, exc.accepted) from None
+            raise
 
     def thread_pitch(self) -> float:
         """The pitch [m]: given, or the coarse pitch of the nominal size."""

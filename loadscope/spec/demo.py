@@ -43,7 +43,7 @@ form.
 
 from __future__ import annotations
 
-import copy
+import json
 
 _TARGET = {"target_life": "20000 h", "reliability": 0.9}
 _DEEP_GROOVE_35 = {"type": "deep_groove", "C": "25.5 kN", "C0": "15.3 kN", "f0": 13.8, **_TARGET}
@@ -177,4 +177,6 @@ def demo_snapshot() -> dict:
     """The demo drive's snapshot (a fresh dict each call; user units, not
     canonical: pass it through :func:`~loadscope.spec.dump_snapshot` for the
     canonical text)."""
-    return copy.deepcopy(_DEMO)
+    # Through JSON, not deepcopy: the bearing and material dicts are shared in
+    # _DEMO, and a caller who edits one bearing must not edit its twin.
+    return json.loads(json.dumps(_DEMO))

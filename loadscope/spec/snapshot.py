@@ -85,8 +85,8 @@ from .ratingspec import (
 from .units import DIMENSIONS, STANDARD_GRAVITY
 
 FORMAT = "loadscope.drive"
-#: The version written for a drive with rating data; a drive without any is
-#: written as version 1, which older readers understand (see docs/snapshot.md).
+#: The version written. Version 2 adds the optional rating data; a version-1
+#: file (which has none) reads unchanged (see docs/snapshot.md, Versioning).
 VERSION = 2
 SUPPORTED_VERSIONS = (1, 2)
 SCHEMA_ID = "urn:loadscope:schema:drive-snapshot:2"
@@ -480,7 +480,7 @@ def _build(snap: Snapshot) -> Drive:
 
 
 def has_rating_data(drive: Drive) -> bool:
-    """Whether the drive carries any rating data (then its snapshot is version 2)."""
+    """Whether the drive carries any rating data (which a version-1 snapshot cannot hold)."""
     h = drive.housing
     return bool(drive.cases or drive.limits != type(drive.limits)() or (h is not None and h.fastener is not None)
                 or any(s.material is not None or s.features or s.pair is not None or s.alternating_torque
@@ -617,7 +617,7 @@ def snapshot_from_drive(drive: Drive) -> dict:
             fastener=None if h.fastener is None else write_fastener(h.fastener))
     i = drive.input
     snap = Snapshot.model_construct(
-        format=FORMAT, version=VERSION if has_rating_data(drive) else 1, name=drive.name,
+        format=FORMAT, version=VERSION, name=drive.name,
         shafts=[_spec_shaft(s) for s in drive.shafts],
         meshes=[MeshSpec.model_construct(id=m.id, gears=(m.gears[0], m.gears[1]), efficiency=float(m.efficiency))
                 for m in drive.meshes],

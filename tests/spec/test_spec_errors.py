@@ -6,6 +6,7 @@ from __future__ import annotations
 import json
 
 import pytest
+from snapshot_edits import at, setter
 
 from loadscope.errors import InputError
 from loadscope.spec import demo_snapshot, drive_from_snapshot, load_snapshot
@@ -14,18 +15,6 @@ GEAR = ("shafts", 0, "gears", 0)          # the helical input pinion
 SPUR = ("shafts", 1, "gears", 1)          # the spur pinion of stage 2
 SECTION = ("shafts", 1, "sections", 1)
 SPROCKET = ("shafts", 2, "pulleys", 0)
-
-
-def at(doc, where):
-    for key in where:
-        doc = doc[key]
-    return doc
-
-
-def setter(where, key, value):
-    def mutate(doc):
-        at(doc, where)[key] = value
-    return mutate
 
 
 def rejected(mutate) -> InputError:
