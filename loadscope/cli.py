@@ -1,6 +1,8 @@
 """``loadscope`` on the command line.
 
     loadscope solve FILE [--format json|csv|table|html] [--units si|us] [--out PATH]
+        (the loads of the drive, then the margins of every rated component
+        per load case and over the duty cycle)
     loadscope demo [--write FILE]
     loadscope schema
 
@@ -47,18 +49,22 @@ def _emit(text: str, out: str | None) -> None:
 
 def _solve_and_format(drive, fmt: str, units: str) -> str:
     from . import report
+    from .kernel.ratings import rate
     from .kernel.solve import solve
 
     result = solve(drive)
+    ratings = rate(drive)
     if fmt == "html":
         from .report.html import to_html
 
-        return to_html(result, units)
+        return to_html(result, units, ratings)
     if fmt == "json":
-        return report.to_json(result, units) + "\n"
+        doc = report.result_to_dict(result, units)
+        doc["ratings"] = report.ratings_to_dict(ratings, units)
+        return json.dumps(doc, indent=2) + "\n"
     if fmt == "csv":
-        return report.to_csv(result, units)
-    return report.to_text(result, units)
+        return report.loads_and_margins_csv(result, ratings, units)
+    return report.to_text(result, units) + "\n" + report.margins_text(ratings, units)
 
 
 def main(argv: list[str] | None = None) -> int:
