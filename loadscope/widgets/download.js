@@ -7,11 +7,11 @@ function render({ model, el }) {
   button.className = "loadscope-download jupyter-button widget-button";
   const label = () => {
     button.textContent = model.get("label");
-    button.title = model.get("tooltip");
+    button.title = model.get("hint");
   };
   label();
   model.on("change:label", label);
-  model.on("change:tooltip", label);
+  model.on("change:hint", label);
   button.addEventListener("click", () => model.send({ kind: "download" }));
   const onMsg = (msg, buffers) => {
     if (!msg || msg.kind !== "file" || !buffers || !buffers.length) return;

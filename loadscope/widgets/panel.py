@@ -68,6 +68,14 @@ class ParamControl(W.HBox):
         label, factor = unit_of(self._state.units, p.kind)
         lo, hi = p.lo / factor, p.hi / factor
         value = p.get(self._state.drive) / factor
+        step = None
+        if p.control == "slider":
+            # The page's slider snaps to min + n * step and sends the snapped value back:
+            # put the current value on the grid (bounds moved inward) so that showing it changes nothing.
+            step = _nice_step(hi - lo)
+            if lo <= value <= hi:
+                lo = value - math.floor((value - lo) / step + 1e-9) * step
+                hi = value + math.floor((hi - value) / step + 1e-9) * step
         self._quiet = True
         try:
             with self.input.hold_trait_notifications():
@@ -75,7 +83,7 @@ class ParamControl(W.HBox):
                 self.input.max = max(hi, value, self.input.min)
                 self.input.min = min(lo, value)
                 self.input.max = max(hi, value)
-                self.input.step = _nice_step(hi - lo) if p.control == "slider" else None
+                self.input.step = step
                 self.input.value = value
         finally:
             self._quiet = False
@@ -87,7 +95,11 @@ class ParamControl(W.HBox):
         if self._quiet:
             return
         _, factor = unit_of(self._state.units, self.param.kind)
-        self._on_value(self.param, float(change["new"]) * factor)
+        shown = self.param.get(self._state.drive) / factor
+        new = float(change["new"])
+        if abs(new - shown) <= 1e-9 * max(abs(shown), self.input.step or 0.0, 1e-300):
+            return          # the page's round-off of the value it was given, not a move
+        self._on_value(self.param, new * factor)
 
 
 class ParameterPanel(W.VBox):

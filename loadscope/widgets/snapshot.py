@@ -34,7 +34,7 @@ class DownloadButton(anywidget.AnyWidget):
 
     _esm = Path(__file__).with_name("download.js")
     label = traitlets.Unicode("Download").tag(sync=True)
-    tooltip = traitlets.Unicode("").tag(sync=True)
+    hint = traitlets.Unicode("", help="shown when the pointer rests on the button").tag(sync=True)
 
     def __init__(self, producer: Callable[[], tuple[str, str, bytes]], **kwargs: Any) -> None:
         super().__init__(**kwargs)
@@ -88,9 +88,9 @@ class SnapshotBar(W.HBox):
     def __init__(self, state: ExplorerState) -> None:
         self.state = state
         self.save = DownloadButton(self.snapshot_file, label="Save snapshot",
-                                   tooltip="the drive as a loadscope snapshot (.json) - opens here and in the CLI")
+                                   hint="the drive as a loadscope snapshot (.json) - opens here and in the CLI")
         self.save_loads = DownloadButton(self.loads_file, label="Save loads",
-                                         tooltip="every load of the current drive, in the chosen units (.json)")
+                                         hint="every load of the current drive, in the chosen units (.json)")
         self.upload = W.FileUpload(accept=".json,application/json", multiple=False, description="Open snapshot",
                                    layout=W.Layout(width="150px"))
         self.pin_button = W.Button(description="Pin for comparison", icon="thumb-tack",

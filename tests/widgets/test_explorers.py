@@ -121,6 +121,14 @@ def test_bad_value_shows_the_message_and_keeps_the_state(recorded):
     assert ex.state.error == "" and ex.message.value == ""
 
 
+def test_page_round_off_of_a_value_is_not_a_move(recorded):
+    ex, rec = recorded
+    result = ex.state.result
+    ex.panel.set_value("meshes[0].pitch_radius", 21.743 * (1 + 1e-15))      # what a slider may echo back
+    assert ex.state.result is result and rec.custom() == []
+    assert ex.state.drive.shafts[0].gears[0].teeth == 21                    # nothing dropped
+
+
 def test_units_toggle_changes_labels_and_converts_values(recorded):
     ex, _ = recorded
     si_table = ex.table.frames["reactions"].copy()
@@ -177,6 +185,11 @@ def test_panel_offers_the_trade_inputs_with_units_and_ranges(recorded):
         lo, hi, v = ctl.input.min, ctl.input.max, ctl.input.value
         assert lo <= v <= hi and lo < hi, key
         assert ctl.param.kind == "number" or ctl.unit.value not in ("", "&nbsp;"), key
+    for key, ctl in ex.panel.controls.items():
+        if ctl.param.control == "slider":
+            # the page snaps a slider to min + n * step: the value shown must already be on that grid
+            n = (ctl.input.value - ctl.input.min) / ctl.input.step
+            assert n == pytest.approx(round(n), abs=1e-6), key
     pa = ex.panel.controls["meshes[0].pressure_angle"].input
     assert (pa.min, pa.max) == pytest.approx((10.0, 35.0))       # the kernel's accepted range
     assert math.isclose(ex.panel.value("input.speed"), 1460.0)
