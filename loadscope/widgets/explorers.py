@@ -17,6 +17,7 @@ the explorer keeps its last good state.
 
 from __future__ import annotations
 
+import html
 from typing import Any
 
 import ipywidgets as W
@@ -50,7 +51,8 @@ class _Explorer(W.VBox):
         self._retitle(None)
 
     def _retitle(self, _change: Any) -> None:
-        self.title.value = f"<span class='loadscope-title'>{self.state.drive.name or 'drive'}</span>"
+        # the name may come from an uploaded file: escaped
+        self.title.value = f"<span class='loadscope-title'>{html.escape(self.state.drive.name or 'drive')}</span>"
 
 
 class DriveExplorer(_Explorer):

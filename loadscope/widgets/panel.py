@@ -13,7 +13,6 @@ from collections.abc import Callable
 
 import ipywidgets as W
 from ipywidgets.widgets.widget_description import DescriptionStyle
-from ipywidgets.widgets.widget_string import HTMLStyle
 
 from ..kernel.model import Drive
 from ..report.units import system
@@ -41,8 +40,10 @@ def _nice_step(span: float) -> float:
     return 10.0 * mag
 
 
-class ParamControl(W.HBox):
-    """A labelled slider or number box bound to one :class:`Param`."""
+class ParamControl:
+    """A slider or number box bound to one :class:`Param`; its description
+    is the label with the unit in brackets, e.g. ``input speed [rpm]``.
+    ``input`` is the widget."""
 
     def __init__(self, param: Param, state: ExplorerState, on_value: Callable[[Param, float], None],
                  looks: dict[str, W.Widget]) -> None:
@@ -50,20 +51,23 @@ class ParamControl(W.HBox):
         self._state = state
         self._on_value = on_value
         self._quiet = False
+        shown = self._shown()
         if param.control == "slider":
-            self.input = W.FloatSlider(readout_format=".4g", style=looks["slider_style"], layout=looks["slider"],
-                                       continuous_update=True)
+            self.input: W.FloatSlider | W.BoundedFloatText = W.FloatSlider(
+                readout_format=".4g", style=looks["slider_style"], layout=looks["slider"], continuous_update=True,
+                **shown)
         else:
-            self.input = W.BoundedFloatText(style=looks["box_style"], layout=looks["box"])
-        self.name = W.HTML(layout=looks["name"], style=looks["html_style"])
-        self.unit = W.HTML(layout=looks["unit"], style=looks["html_style"])
-        super().__init__([self.name, self.input, self.unit], layout=looks["row"])
-        self.add_class("loadscope-param")
+            self.input = W.BoundedFloatText(style=looks["box_style"], layout=looks["box"], **shown)
+        self.input.add_class("loadscope-param")
         self.input.observe(self._moved, "value")
-        self.refresh()
 
-    def refresh(self) -> None:
-        """Show the state's value in the state's units (no proposal)."""
+    @property
+    def unit(self) -> str:
+        """The unit shown now (empty for a plain number)."""
+        return unit_of(self._state.units, self.param.kind)[0]
+
+    def _shown(self) -> dict[str, object]:
+        """Traits that show the state's value in the state's units."""
         p = self.param
         label, factor = unit_of(self._state.units, p.kind)
         lo, hi = p.lo / factor, p.hi / factor
@@ -76,20 +80,24 @@ class ParamControl(W.HBox):
             if lo <= value <= hi:
                 lo = value - math.floor((value - lo) / step + 1e-9) * step
                 hi = value + math.floor((hi - value) / step + 1e-9) * step
+        return {"min": min(lo, value), "max": max(hi, value), "step": step, "value": value,
+                "description": f"{p.label} [{label}]" if label else p.label,
+                "tooltip": f"{p.key}: {lo:.4g} to {hi:.4g} {label}" + (f"; {p.note}" if p.note else "")}
+
+    def refresh(self) -> None:
+        """Show the state's value in the state's units (no proposal)."""
+        shown = self._shown()
         self._quiet = True
         try:
-            with self.input.hold_trait_notifications():
+            # one message with every key: the page must never see a value with the other units' bounds
+            # (it would clamp it and send the clamped value back as a move)
+            with self.input.hold_sync(), self.input.hold_trait_notifications():
                 # widen first so that neither bound rejects the other on the way
-                self.input.max = max(hi, value, self.input.min)
-                self.input.min = min(lo, value)
-                self.input.max = max(hi, value)
-                self.input.step = step
-                self.input.value = value
+                self.input.max = max(shown["max"], self.input.min)      # type: ignore[call-overload]
+                for key in ("min", "max", "step", "value", "description", "tooltip"):
+                    setattr(self.input, key, shown[key])
         finally:
             self._quiet = False
-        self.name.value = f"<span title='{p.key}'>{p.label}</span>"
-        self.unit.value = label or "&nbsp;"
-        self.input.tooltip = f"{p.key} [{label or '1'}]; range {lo:.4g} to {hi:.4g} {label}"
 
     def _moved(self, change: dict) -> None:
         if self._quiet:
@@ -122,15 +130,14 @@ class ParameterPanel(W.VBox):
         params = [p for p in drive_params(self.state.drive, self.state.result) if self._keep(p.group)]
         # one layout and style of each kind, shared by every control: a few models in the page, not hundreds
         looks = self._looks = getattr(self, "_looks", None) or {
-            "slider": W.Layout(width="190px"), "box": W.Layout(width="110px"), "name": W.Layout(width="150px"),
-            "unit": W.Layout(width="55px"), "row": W.Layout(align_items="center"),
-            "slider_style": W.SliderStyle(description_width="0px"),
-            "box_style": DescriptionStyle(description_width="0px"), "html_style": HTMLStyle()}
+            "slider": W.Layout(width="390px"), "box": W.Layout(width="300px"),
+            "slider_style": W.SliderStyle(description_width="190px"),
+            "box_style": DescriptionStyle(description_width="190px")}
         self.controls = {p.key: ParamControl(p, self.state, self._propose, looks) for p in params}
         groups: dict[str, list[W.Widget]] = {}
         notes: dict[str, list[str]] = {}
         for p in params:
-            groups.setdefault(p.group, []).append(self.controls[p.key])
+            groups.setdefault(p.group, []).append(self.controls[p.key].input)
             if p.note:
                 notes.setdefault(p.group, []).append(f"{p.label}: {p.note}")
         boxes = []

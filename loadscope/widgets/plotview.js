@@ -71,7 +71,9 @@ function decode(value, buffers) {
   if ("$lsbuf" in value) {
     const dv = buffers[value.$lsbuf];
     const bytes = dv.buffer.slice(dv.byteOffset, dv.byteOffset + dv.byteLength);
-    return value.dtype === "i4" ? new Int32Array(bytes) : new Float32Array(bytes);
+    const arr = value.dtype === "i4" ? new Int32Array(bytes) : new Float32Array(bytes);
+    // a polyline's gaps travel as NaN; plotly wants null there
+    return value.gaps ? Array.from(arr, (v) => (Number.isNaN(v) ? null : v)) : arr;
   }
   if ("$lsrun" in value) {
     const out = [];

@@ -81,12 +81,15 @@ def encode(value: Any) -> tuple[Any, list[bytes]]:
 
     Lists of at least ``PACK_MIN`` plain numbers become ``{"$lsbuf": i,
     "dtype": "f4" | "i4"}`` (little-endian float32 / int32 in buffer ``i``;
-    float32 keeps about 7 significant digits, enough for display); lists of
+    float32 keeps about 7 significant digits, enough for display; equal
+    arrays share one buffer); number lists with ``None`` gaps (polylines)
+    carry the gaps as NaN and ``"gaps": 1``; lists of
     texts with repeats become ``{"$lsrun": [[text, count], ...]}`` when that
     halves them; other floats are rounded to ``DIGITS`` significant digits.
     ``plotview.js`` undoes this; :func:`decode` is the same in Python.
     """
     buffers: list[bytes] = []
+    known: dict[bytes, int] = {}            # equal arrays (e.g. the shared x of diagram rows) go once
 
     def walk(v: Any) -> Any:
         if isinstance(v, float):
@@ -96,10 +99,15 @@ def encode(value: Any) -> tuple[Any, list[bytes]]:
         if isinstance(v, list):
             if len(v) >= PACK_MIN:
                 kinds = {type(x) for x in v}
-                if kinds <= {int, float}:
+                if kinds <= {int, float, type(None)} and kinds - {type(None)}:
+                    gaps = type(None) in kinds
                     dtype = "<i4" if kinds == {int} and max(map(abs, v)) < 2**31 else "<f4"
-                    buffers.append(np.asarray(v, dtype=dtype).tobytes())
-                    return {"$lsbuf": len(buffers) - 1, "dtype": dtype[1:]}
+                    raw = np.asarray([math.nan if x is None else x for x in v] if gaps else v, dtype=dtype).tobytes()
+                    if raw not in known:
+                        known[raw] = len(buffers)
+                        buffers.append(raw)
+                    ref = {"$lsbuf": known[raw], "dtype": dtype[1:]}
+                    return {**ref, "gaps": 1} if gaps else ref
                 if kinds <= {str, type(None)}:
                     runs = _runs(v)
                     if 2 * len(runs) <= len(v):
@@ -114,7 +122,8 @@ def decode(value: Any, buffers: list[bytes]) -> Any:
     """The figure data that :func:`encode` packed (numbers as float32 lists)."""
     if isinstance(value, dict):
         if "$lsbuf" in value:
-            return np.frombuffer(bytes(buffers[value["$lsbuf"]]), dtype="<" + value["dtype"]).tolist()
+            out = np.frombuffer(bytes(buffers[value["$lsbuf"]]), dtype="<" + value["dtype"]).tolist()
+            return [None if x != x else x for x in out] if value.get("gaps") else out
         if "$lsrun" in value:
             return [item for item, count in value["$lsrun"] for _ in range(count)]
         return {k: decode(x, buffers) for k, x in value.items()}

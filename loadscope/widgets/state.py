@@ -12,7 +12,6 @@ from __future__ import annotations
 import logging
 from collections.abc import Callable
 from pathlib import Path
-from typing import Any
 
 import traitlets
 
@@ -112,8 +111,3 @@ class ExplorerState(traitlets.HasTraits):
     def unpin(self) -> None:
         """Stop comparing."""
         self.pinned = None
-
-    def describe(self) -> dict[str, Any]:
-        """A short summary for tests and logs."""
-        return {"drive": self.drive.name, "units": self.units, "pinned": self.pinned is not None,
-                "error": self.error}

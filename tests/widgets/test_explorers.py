@@ -18,6 +18,7 @@ from loadscope.spec import demo_snapshot, dump_snapshot
 from loadscope.viz import force_scene, reaction_bars, shaft_diagrams
 from loadscope.widgets import DriveExplorer, MeshExplorer, ShaftExplorer
 from loadscope.widgets.capture import capture_comms
+from loadscope.widgets.panel import unit_of
 
 LBF = 4.4482216152605      # N, NIST SP 811 Appendix B (exact by definition)
 HP = 745.69987158227       # W, same source
@@ -130,15 +131,23 @@ def test_page_round_off_of_a_value_is_not_a_move(recorded):
 
 
 def test_units_toggle_changes_labels_and_converts_values(recorded):
-    ex, _ = recorded
+    ex, rec = recorded
     si_table = ex.table.frames["reactions"].copy()
+    rec.clear()
     ex.units.value = "us"
+    # each control's new bounds and value reach the page in one message (else the page clamps the value)
+    for key, ctl in ex.panel.controls.items():
+        if unit_of("si", ctl.param.kind) == unit_of("us", ctl.param.kind):
+            continue                                             # rpm, deg, plain numbers: nothing to send
+        sent = [m.data["state"] for m in rec.messages
+                if m.comm_id == ctl.input.comm.comm_id and m.data.get("method") == "update"]
+        assert len(sent) == 1 and {"value", "max", "description"} <= set(sent[0]), key
     assert ex.state.units == "us"
     ctl = ex.panel.controls["input.power"]
-    assert ctl.unit.value == "hp"
+    assert ctl.unit == "hp" and ctl.input.description == "input power [hp]"
     assert ex.panel.value("input.power") == pytest.approx(5500.0 / HP, rel=1e-12)
     assert ex.panel.value("shafts[2].supports[1].at") == pytest.approx(150.0 / 25.4, rel=1e-12)
-    assert ex.panel.controls["meshes[0].pressure_angle"].unit.value == "deg"
+    assert ex.panel.controls["meshes[0].pressure_angle"].unit == "deg"
     us_table = ex.table.frames["reactions"]
     assert "radial [lbf]" in us_table.columns and "radial [N]" not in us_table.columns
     np.testing.assert_allclose(us_table["radial [lbf]"], si_table["radial [N]"] / LBF, rtol=1e-12)
@@ -184,7 +193,7 @@ def test_panel_offers_the_trade_inputs_with_units_and_ranges(recorded):
     for key, ctl in ex.panel.controls.items():
         lo, hi, v = ctl.input.min, ctl.input.max, ctl.input.value
         assert lo <= v <= hi and lo < hi, key
-        assert ctl.param.kind == "number" or ctl.unit.value not in ("", "&nbsp;"), key
+        assert ctl.param.kind == "number" or ctl.input.description.endswith(f"[{ctl.unit}]") and ctl.unit, key
     for key, ctl in ex.panel.controls.items():
         if ctl.param.control == "slider":
             # the page snaps a slider to min + n * step: the value shown must already be on that grid

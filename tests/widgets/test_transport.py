@@ -100,12 +100,14 @@ def test_a_structural_change_sends_the_whole_figure(specs):
 
 def test_encode_packs_numbers_and_repeated_texts():
     value = {"x": [float(i) / 3 for i in range(20)], "i": list(range(20)), "t": ["a"] * 18 + ["b", None],
-             "short": [1.23456789, None], "s": 0.1234567891}
+             "short": [1.23456789, None], "s": 0.1234567891, "line": [0.5, 1.5, None] * 6}
     packed, buffers = encode(value)
     assert packed["x"] == {"$lsbuf": 0, "dtype": "f4"} and packed["i"] == {"$lsbuf": 1, "dtype": "i4"}
     assert packed["t"] == {"$lsrun": [["a", 18], ["b", 1], [None, 1]]}
     assert packed["short"] == [1.23457, None] and packed["s"] == 0.123457
-    assert len(buffers[0]) == 80 and len(buffers[1]) == 80
+    assert packed["line"] == {"$lsbuf": 2, "dtype": "f4", "gaps": 1}
+    assert [len(b) for b in buffers] == [80, 80, 72]
     back = decode(packed, buffers)
-    assert back["i"] == value["i"] and back["t"] == value["t"]
+    assert back["i"] == value["i"] and back["t"] == value["t"] and back["line"] == value["line"]
+    assert encode({"a": value["x"], "b": list(value["x"])})[0] == {"a": packed["x"], "b": packed["x"]}
     np.testing.assert_allclose(back["x"], value["x"], rtol=1e-7)
