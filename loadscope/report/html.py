@@ -384,6 +384,7 @@ def to_html(result: DriveResult, units: str = "si", ratings: Any = None) -> str:
     methods_used = [r.get("method", "") for rows in (margin_tables or {}).values() for r in rows]
     toc = [("inputs", "Inputs"), ("loads", "Loads"), ("figures", "Figures")]
     if margin_tables is not None:
+        toc[2:2] = [("load-cases", "Load cases")]
         toc.append(("margins", "Margins"))
     toc.append(("methods", "Methods and sources"))
     body = [

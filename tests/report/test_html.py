@@ -205,6 +205,9 @@ def test_ratings_render_when_given(result):
     p = parse(to_html(result, ratings=ratings))
     for name in case_names(ratings):
         assert "margins-" + "".join(ch if ch.isalnum() else "-" for ch in name) in p.tables
+    ids = {a.get("id") for _, a in p.tags}
+    anchors = [a["href"][1:] for t, a in p.tags if t == "a"]
+    assert "load-cases" in anchors and set(anchors) <= ids          # every contents entry lands somewhere
     # Every bearing reaction of every load case, equal to the kernel's for that case.
     rows = p.tables["table-case-reactions"][1:]
     expected = [(cr.case.name, sr.id, sid, rg) for cr in ratings.cases for sr in cr.result.shafts
