@@ -8,32 +8,21 @@ numbers go in the report of the change that moves them.
 
 from __future__ import annotations
 
-import statistics
-import time
+from bench_solve import median_time  # the same timing rule as the solve bench
 
 from loadscope import rate, solve_cases
 from loadscope.report import margins_tables
 from loadscope.spec import demo_snapshot, drive_from_snapshot
 
 
-def median_time(fn, repeat: int = 15, number: int = 10) -> float:
-    """Median over ``repeat`` runs of the mean time of ``number`` calls [s]."""
-    times = []
-    for _ in range(repeat):
-        t0 = time.perf_counter()
-        for _ in range(number):
-            fn()
-        times.append((time.perf_counter() - t0) / number)
-    return statistics.median(times)
-
-
 def main() -> None:
     drive = drive_from_snapshot(demo_snapshot())
     ratings = rate(drive)                               # warm up (diagram sampling, imports)
     margins_tables(ratings)
-    t_rate = median_time(lambda: rate(drive))
-    t_solve = median_time(lambda: [r.result.shafts[0].solution.diagram for r in solve_cases(drive)])
-    t_table = median_time(lambda: margins_tables(ratings))
+    t_rate = median_time(lambda: rate(drive), repeat=15, number=10)
+    t_solve = median_time(lambda: [s.solution.diagram for r in solve_cases(drive) for s in r.result.shafts],
+                          repeat=15, number=10)
+    t_table = median_time(lambda: margins_tables(ratings), repeat=15, number=10)
     n = len(ratings.checks)
     print(f"rate(demo), 3 cases, {n} checks: {t_rate * 1e3:.1f} ms "
           f"(of which solving the cases with their diagrams {t_solve * 1e3:.1f} ms)")

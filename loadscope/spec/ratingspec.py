@@ -13,6 +13,7 @@ from typing import Literal
 
 from pydantic import Field
 
+from ..kernel.model import Drive
 from ..kernel.ratingdata import (
     Bearing,
     BearingPair,
@@ -223,3 +224,11 @@ def write_fastener(f: Fastener) -> FastenerSpec:
 def write_case(c: LoadCase) -> CaseSpec:
     return CaseSpec.model_construct(name=c.name, share=float(c.share), power=_f(c.power), torque=_f(c.torque),
                                     speed=_f(c.speed))
+
+
+def has_rating_data(drive: Drive) -> bool:
+    """Whether the drive carries any rating data (which a version-1 snapshot cannot hold)."""
+    h = drive.housing
+    return bool(drive.cases or drive.limits != type(drive.limits)() or (h is not None and h.fastener is not None)
+                or any(s.material is not None or s.features or s.pair is not None or s.alternating_torque
+                       or any(x.bearing is not None for x in s.supports) for s in drive.shafts))
