@@ -222,11 +222,11 @@ def stiffness_checks(case: str, result: DriveResult) -> list[RatingCheck]:
             where[g.id] = (shaft, sr, g.at)
             ld = loads_at(diag, g.at)
             det = {"deflection": ld["deflection"], "slope": ld["slope"], "v1": ld["v1"], "v2": ld["v2"]}
+            allow, src = lim.gear_deflection_for(g.pitch_radius, g.teeth)
             comp = f"{shaft.id} at {g.id}"
             path = g.path or comp
             out.append(RatingCheck(case, "stiffness", comp, "deflection at gear", ld["deflection"],
-                                   lim.gear_deflection, "deflection", "max",
-                                   f"Euler-Bernoulli deflection; limit {lim.source('gear_deflection')}", path, g.at,
+                                   allow, "deflection", "max", f"Euler-Bernoulli deflection; limit {src}", path, g.at,
                                    det))
             out.append(RatingCheck(case, "stiffness", comp, "slope at gear", ld["slope"], lim.gear_slope, "slope",
                                    "max", f"Euler-Bernoulli slope; limit {lim.source('gear_slope')}", path, g.at,

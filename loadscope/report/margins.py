@@ -169,7 +169,8 @@ def loads_and_margins_csv(result: Any, ratings: DriveRatings, units: str = "si")
     """One CSV text: every load of ``result`` (as :func:`~loadscope.report.to_csv`
     writes them) followed by every governing check of every case and the duty
     cycle (group ``margin``, item the component, quantity the check), with
-    the extra columns case, kind, allowable, margin, status, method."""
+    the extra columns case, kind, allowable, margin, status, method; the
+    last row (group ``caution``) carries the caution in its method column."""
     import csv
     import io
 
@@ -192,4 +193,5 @@ def loads_and_margins_csv(result: Any, ratings: DriveRatings, units: str = "si")
                 "group": "margin", "item": r["component"], "quantity": r["check"], "value": r["value"],
                 "unit": r["unit"], "case": r["case"], "kind": r["kind"], "allowable": r["allowable"],
                 "margin": r["margin"], "status": r["status"], "method": r["method"]}.items()})
+    w.writerow({"group": "caution", "unit": "-", "method": CAUTION})
     return buf.getvalue()

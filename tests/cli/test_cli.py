@@ -150,6 +150,7 @@ def test_json_and_csv_carry_the_margins(demo_file, capsys, tmp_path):
     assert {x["case"] for x in margins} == {"rated", "part load", "jam", "duty cycle"}
     assert all(x["status"] and x["method"] and x["allowable"] for x in margins)
     assert any(x["group"] == "reaction" for x in rows)
+    assert rows[-1]["group"] == "caution" and "qualified engineer" in rows[-1]["method"]
 
 
 def test_bad_rating_data_is_one_clear_line(demo_file, tmp_path):

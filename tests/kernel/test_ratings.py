@@ -211,6 +211,10 @@ def test_stiffness_and_mesh_misalignment(ratings, drive):
     sol = res.shaft("output").solution
     k = int(np.flatnonzero(np.isclose(sol.stations, 0.110, atol=1e-12))[0])
     assert g4.value == pytest.approx(float(np.hypot(*sol.deflection_at[k])), rel=1e-9)
+    # Shigley 9th ed. Table 7-2 (from memory): 0.010 in for P < 11 teeth/in (g4: m = 3 mm, P = 8.47),
+    # 0.005 in for 11 <= P < 20 (p1: m_t = 2 * 21.743 / 21 = 2.071 mm, P = 12.3).
+    assert g4.allowable == pytest.approx(0.010 * 0.0254, rel=1e-15)
+    assert _one(cr.checks, "stiffness", "input at p1", "deflection").allowable == pytest.approx(0.005 * 0.0254)
 
 
 def test_tighter_limits_make_a_check_fail(drive):
