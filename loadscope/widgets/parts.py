@@ -1,0 +1,267 @@
+"""The parts an explorer is made of. Each observes one
+:class:`~loadscope.widgets.state.ExplorerState` and redraws itself from
+``loadscope.viz`` builders and ``loadscope.report`` tables; none does any
+mechanics.
+
+* :class:`ForceView` - the 3D force scene, applied loads / reactions / both
+* :class:`ReactionView` - bearing reaction bars, radial/axial or x, y, z,
+  the current state beside the pinned one
+* :class:`DiagramView` - shear, bending, torque, deflection of a chosen shaft
+* :class:`LoadTable` - tables of every load, with the change from the pinned
+  state beside each value
+* :class:`UnitsToggle`, :class:`MessageBar`
+"""
+
+from __future__ import annotations
+
+import html
+from typing import Any
+
+import ipywidgets as W
+import numpy as np
+
+from .. import CAUTION
+from ..kernel.solve import DriveResult
+from ..report import tables
+from ..viz import force_scene, reaction_bars, shaft_diagrams
+from ..viz.style import PALETTE, number
+from .plotview import PlotView
+from .state import ExplorerState
+
+#: what the units toggle offers: (label, system)
+UNIT_CHOICES = (("SI · N, mm, N·m, kW", "si"), ("US · lbf, in, lbf·in, hp", "us"))
+SHOW_LABELS = (("applied loads", "applied"), ("reactions", "reactions"), ("both", "both"))
+PARTS_LABELS = (("radial and axial", "radial_axial"), ("x, y, z parts", "components"))
+
+
+class UnitsToggle(W.ToggleButtons):
+    """SI / US customary for every label and number of the explorer."""
+
+    def __init__(self, state: ExplorerState) -> None:
+        super().__init__(options=UNIT_CHOICES, value=state.units, description="units",
+                         style={"button_width": "170px"})
+        self.add_class("loadscope-units")
+        W.link((self, "value"), (state, "units"))
+
+
+class MessageBar(W.HTML):
+    """The message of the last rejected change (empty when all is well)."""
+
+    def __init__(self, state: ExplorerState) -> None:
+        super().__init__()
+        self.add_class("loadscope-message")
+        self._state = state
+        state.observe(self._show, "error")
+        self._show(None)
+
+    def _show(self, _change: Any) -> None:
+        err = self._state.error
+        self.value = ("" if not err else
+                      f"<div class='loadscope-error' role='alert'><b>Not applied</b> - {html.escape(err)}<br>"
+                      "<small>The drive and the figures still show the last valid state.</small></div>")
+
+
+class ForceView(W.VBox):
+    """The 3D drive with its force arrows. The arrow scale [m/N] is fixed
+    when the drive opens, so arrows grow and shrink as loads change."""
+
+    def __init__(self, state: ExplorerState) -> None:
+        self.state = state
+        self.show = W.ToggleButtons(options=SHOW_LABELS, value="applied", description="arrows",
+                                    style={"button_width": "110px"})
+        self._scale: float | None = None
+        self.view = PlotView(self._spec())
+        super().__init__([self.show, self.view])
+        self.add_class("loadscope-force-view")
+        self.show.observe(self.redraw, "value")
+        state.observe(self._reset, "topology")
+        state.observe(self.redraw, ["result", "units"])
+
+    def _spec(self) -> dict[str, Any]:
+        spec = force_scene(self.state.result, self.state.units, self.show.value, self._scale)
+        self._scale = spec["layout"]["meta"]["arrow_scale"] or None
+        return spec
+
+    def _reset(self, _change: Any) -> None:
+        self._scale = None
+
+    def redraw(self, _change: Any = None) -> None:
+        self.view.show(self._spec())
+
+
+def _cases(state: ExplorerState) -> dict[str, DriveResult] | None:
+    """The current result beside the pinned one, when both have the same bearings."""
+    pinned = state.pinned
+    if pinned is None:
+        return None
+    same = [(s.id, s.solution.support_ids) for s in pinned.shafts] == \
+           [(s.id, s.solution.support_ids) for s in state.result.shafts]
+    return {"now": state.result, "pinned": pinned} if same else None
+
+
+class ReactionView(W.VBox):
+    """Bearing reaction bars; the pinned state, when there is one, as a
+    second, hatched set of bars."""
+
+    def __init__(self, state: ExplorerState) -> None:
+        self.state = state
+        self.parts = W.ToggleButtons(options=PARTS_LABELS, value="radial_axial", description="show",
+                                     style={"button_width": "130px"})
+        self.view = PlotView(self._spec())
+        super().__init__([self.parts, self.view])
+        self.add_class("loadscope-reaction-view")
+        self.parts.observe(self.redraw, "value")
+        state.observe(self.redraw, ["result", "units", "pinned"])
+
+    def _spec(self) -> dict[str, Any]:
+        return reaction_bars(self.state.result, self.state.units, self.parts.value, _cases(self.state))
+
+    def redraw(self, _change: Any = None) -> None:
+        self.view.show(self._spec())
+
+
+class DiagramView(W.VBox):
+    """Shear, bending (both planes and resultant), torque and deflection
+    along the shaft chosen in the drop-down."""
+
+    def __init__(self, state: ExplorerState, shaft: str | None = None) -> None:
+        self.state = state
+        ids = [s.id for s in state.drive.shafts]
+        self.shaft = W.Dropdown(options=ids, value=shaft if shaft in ids else ids[-1], description="shaft")
+        self.view = PlotView(self._spec())
+        super().__init__([self.shaft, self.view])
+        self.add_class("loadscope-diagram-view")
+        self.shaft.observe(self.redraw, "value")
+        state.observe(self._new_drive, "topology")
+        state.observe(self.redraw, ["result", "units"])
+
+    def _spec(self) -> dict[str, Any]:
+        return shaft_diagrams(self.state.result, self.shaft.value, self.state.units)
+
+    def _new_drive(self, _change: Any) -> None:
+        ids = [s.id for s in self.state.drive.shafts]
+        with self.shaft.hold_trait_notifications():
+            self.shaft.options = ids
+            if self.shaft.value not in ids:
+                self.shaft.value = ids[-1]
+
+    def redraw(self, _change: Any = None) -> None:
+        self.view.show(self._spec())
+
+
+# --------------------------------------------------------------------------- the load table
+
+TABLE_TITLES = {
+    "shafts": "Shafts: speed, torque, power, largest bending moment and deflection",
+    "reactions": "Bearing reactions (force of the support on the shaft; global x, y, z)",
+    "teeth": "Tooth forces (at the pitch point; global x, y, z)",
+    "bolts": "Mounting bolts (tension positive)",
+}
+
+
+def _delta_text(d: float) -> str:
+    if abs(d) < 5e-13:
+        return "±0"
+    return ("+" if d > 0 else "−") + number(abs(d))
+
+
+def _table_html(name: str, now: Any, pinned: Any, keep: Any) -> str:
+    cols = list(now.columns)
+    values = {c: now[c].tolist() for c in cols}
+    numeric = [c for c in cols if now[c].dtype.kind in "fi"]
+    ids = [c for c in cols if c not in numeric]
+    rows = [i for i in range(len(now)) if keep({c: values[c][i] for c in ids})]
+    if not rows:
+        return ""
+    before = None
+    if pinned is not None and list(pinned.columns) == cols and len(pinned) == len(now):
+        before = {c: pinned[c].tolist() for c in cols}
+        if any(before[c] != values[c] for c in ids):
+            before = None                       # other rows: nothing to compare
+    head = "".join(f"<th>{html.escape(c)}</th>" for c in cols)
+    body = []
+    for i in rows:
+        cells = []
+        for c in cols:
+            v = values[c][i]
+            if c in numeric:
+                text = number(float(v))
+                if before is not None:
+                    text += f"<span class='d'>{_delta_text(float(v) - float(before[c][i]))}</span>"
+                cells.append(f"<td class='n'>{text}</td>")
+            else:
+                cells.append(f"<td>{html.escape(str(v))}</td>")
+        body.append("<tr>" + "".join(cells) + "</tr>")
+    title = html.escape(TABLE_TITLES.get(name, name))
+    return f"<table data-table='{name}'><caption>{title}</caption><tr>{head}</tr>{''.join(body)}</table>"
+
+
+class LoadTable(W.HTML):
+    """Every load of the drive in tables (``loadscope.report.tables``), in
+    the chosen units; with a pinned state, each value carries its change
+    from the pinned one (small, after the value). ``shafts`` keeps only the
+    rows of those shafts (None: all)."""
+
+    def __init__(self, state: ExplorerState, shafts: tuple[str, ...] | None = None,
+                 meshes: tuple[str, ...] | None = None) -> None:
+        super().__init__()
+        self.add_class("loadscope-table")
+        self.state = state
+        self._shafts = shafts
+        self._meshes = meshes
+        self.frames: dict[str, Any] = {}
+        self._pinned_frames: tuple[Any, str, dict[str, Any]] | None = None
+        state.observe(self.redraw, ["result", "units", "pinned"])
+        self.redraw()
+
+    def _keep(self, name: str) -> Any:
+        if name in ("shafts", "reactions") and self._shafts is not None:
+            return lambda row: row["shaft"] in self._shafts
+        if name == "teeth" and self._meshes is not None:
+            return lambda row: row["mesh"] in self._meshes
+        if name == "bolts" and (self._shafts is not None or self._meshes is not None):
+            return lambda row: False
+        return lambda row: True
+
+    def _pinned_tables(self) -> dict[str, Any]:
+        st = self.state
+        if st.pinned is None:
+            return {}
+        cached = self._pinned_frames
+        if cached is None or cached[0] is not st.pinned or cached[1] != st.units:
+            cached = self._pinned_frames = (st.pinned, st.units, tables(st.pinned, st.units))
+        return cached[2]
+
+    def redraw(self, _change: Any = None) -> None:
+        st = self.state
+        self.frames = tables(st.result, st.units)
+        before = self._pinned_tables()
+        parts = [_table_html(n, f, before.get(n), self._keep(n)) for n, f in self.frames.items()]
+        pin = ("<p class='pin'>Small figures after each value: change from the pinned state.</p>"
+               if st.pinned is not None else "")
+        self.value = pin + "".join(parts) + f"<p class='caution'>Caution: {html.escape(CAUTION)}</p>"
+
+
+def table_value(frame: Any, match: dict[str, str], column: str) -> float:
+    """One number of a report table, found by the values of its id columns."""
+    mask = np.ones(len(frame), dtype=bool)
+    for k, v in match.items():
+        mask &= (frame[k] == v).to_numpy()
+    return float(frame[column][mask].iloc[0])
+
+
+#: the explorer's own styles (colours from loadscope.viz.style)
+STYLE_HTML = f"""<style>
+.loadscope-explorer {{ background: {PALETTE['page']}; color: {PALETTE['ink']}; padding: 6px; }}
+.loadscope-title {{ font-size: 1.25em; font-weight: 600; color: {PALETTE['ink']}; }}
+.loadscope-error {{ border-left: 5px solid {PALETTE['applied']}; background: #FCEDE8; padding: 6px 10px; }}
+.loadscope-note {{ color: {PALETTE['faint']}; font-size: 0.85em; padding: 2px 0 6px 0; }}
+.loadscope-table table {{ border-collapse: collapse; margin: 8px 0 14px 0; font-size: 0.9em; }}
+.loadscope-table caption {{ text-align: left; font-weight: 600; padding: 4px 0; color: {PALETTE['bearing']}; }}
+.loadscope-table th {{ background: {PALETTE['plot']}; border-bottom: 2px solid {PALETTE['grid']};
+  padding: 3px 8px; text-align: right; }}
+.loadscope-table td {{ border-bottom: 1px solid {PALETTE['grid']}; padding: 2px 8px; }}
+.loadscope-table td.n {{ text-align: right; font-variant-numeric: tabular-nums; }}
+.loadscope-table .d {{ color: {PALETTE['reaction']}; font-size: 0.8em; margin-left: 6px; }}
+.loadscope-table .caution, .loadscope-caution {{ color: {PALETTE['faint']}; font-size: 0.85em; }}
+</style>"""
