@@ -21,7 +21,7 @@ import ipywidgets as W
 
 from .. import CAUTION
 from ..kernel.solve import DriveResult
-from ..report import result_to_dict
+from ..report import table_rows
 from ..viz import force_scene, reaction_bars, shaft_diagrams
 from ..viz.style import PALETTE, number
 from .plotview import PlotView
@@ -167,33 +167,6 @@ def _delta_text(d: float) -> str:
 Table = tuple[list[str], list[list[Any]]]
 
 
-def load_tables(result: DriveResult, units: str) -> dict[str, Table]:
-    """The tables of :func:`loadscope.report.tables` as (columns, rows) of
-    plain values, built from the same :func:`loadscope.report.result_to_dict`
-    without pandas (a DataFrame per table per slider move costs more than the
-    solve). The tests check that both give the same tables."""
-    d = result_to_dict(result, units)
-    u = d["units"]
-    f, m = u["force"], u["moment"]
-    out: dict[str, Table] = {
-        "shafts": (["shaft", f"speed [{u['speed']}]", f"torque [{m}]", f"power [{u['power']}]",
-                    f"max bending [{m}]", f"max deflection [{u['deflection']}]"],
-                   [[s["id"], s["speed"], s["torque"], s["power"], s["max_bending"]["moment"],
-                     s["max_deflection"]["deflection"]] for s in d["shafts"]]),
-        "reactions": (["shaft", "support", f"Rx [{f}]", f"Ry [{f}]", f"Rz [{f}]", f"radial [{f}]", f"axial [{f}]"],
-                      [[s["id"], r["support"], *r["force"], r["radial"], r["axial"]]
-                       for s in d["shafts"] for r in s["reactions"]]),
-        "teeth": (["mesh", "gear", "role", f"Fx [{f}]", f"Fy [{f}]", f"Fz [{f}]", f"tangential [{f}]",
-                   f"radial [{f}]", f"axial [{f}]"],
-                  [[mm["id"], t["gear"], t["role"], *t["force"], t["tangential"], t["radial"], t["axial"]]
-                   for mm in d["meshes"] for t in mm["teeth"]]),
-    }
-    if "housing" in d:
-        out["bolts"] = (["bolt", f"Fx [{f}]", f"Fy [{f}]", f"Fz [{f}]", f"shear [{f}]", f"tension [{f}]"],
-                        [[b["id"], *b["force"], b["shear"], b["tension"]] for b in d["housing"]["bolts"]])
-    return out
-
-
 def _table_html(name: str, now: Table, pinned: Table | None, keep: Any) -> str:
     cols, rows = now
     ids = [j for j, v in enumerate(rows[0]) if isinstance(v, str)] if rows else []
@@ -222,7 +195,7 @@ def _table_html(name: str, now: Table, pinned: Table | None, keep: Any) -> str:
 
 
 class LoadTable(W.HTML):
-    """Every load of the drive in tables (those of ``loadscope.report.tables``),
+    """Every load of the drive in tables (``loadscope.report.table_rows``),
     in the chosen units; with a pinned state, each value carries its change
     from the pinned one (small, after the value; rows matched by their ids).
     ``shafts`` / ``meshes`` keep only the rows of those (None: all)."""
@@ -261,12 +234,12 @@ class LoadTable(W.HTML):
             return {}
         cached = self._pinned_tables
         if cached is None or cached[0] is not st.pinned or cached[1] != st.units:
-            cached = self._pinned_tables = (st.pinned, st.units, load_tables(st.pinned, st.units))
+            cached = self._pinned_tables = (st.pinned, st.units, table_rows(st.pinned, st.units))
         return cached[2]
 
     def redraw(self, _change: Any = None) -> None:
         st = self.state
-        self.tables = load_tables(st.result, st.units)
+        self.tables = table_rows(st.result, st.units)
         before = self._pinned()
         parts = [_table_html(n, t, before.get(n), self._keep(n)) for n, t in self.tables.items()]
         pin = ("<p class='pin'>Small figures after each value: change from the pinned state.</p>"
