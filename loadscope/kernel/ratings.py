@@ -11,6 +11,16 @@ check of one component in one case, with its value, its allowable, the
 sense of the comparison, the method it follows, its margin and its status
 (see :mod:`loadscope.kernel.ratingcheck` for the margin and the watch band).
 
+Bearings: Fr and Fa from the support's reaction; a pair (angular-contact or
+tapered-roller) carries the shaft's whole thrust by the catalogue method
+(:func:`~loadscope.kernel.bearings.paired_axial_loads`). An unpaired
+angular-contact or tapered-roller bearing is rated with the axial load the
+solver gives it: its induced force is not added (pair it to count it).
+Deep-groove X, Y, e come from ISO 281 Table 3; below the table's first row
+(f0 Fa / C0 < 0.172) the first row is used (its Y is the largest, the safe
+side; common practice); beyond the last row a separate check fails, since
+ISO 281 gives no value there.
+
 Results are for preliminary design; they must be checked by a qualified
 engineer, and local codes, standards and licensed practice govern.
 """
