@@ -151,7 +151,11 @@ def _bearing_checks(case: str, res: DriveResult) -> list[RatingCheck]:
             l10 = float(brg.basic_rating_life(b.C, bl.load, b.rolling, where))
             lnm = float(brg.modified_rating_life(b.C, bl.load, b.rolling, b.reliability, method="weibull", path=where))
             hours = float(brg.life_hours(lnm, bl.speed, where))
-            det = dict(bl.details, L10=l10, L10h=float(brg.life_hours(l10, bl.speed, where)), Lnm=lnm, Lnmh=hours)
+            target_rev = brg.revolutions(b.target_life, bl.speed, where)
+            need = float(brg.required_dynamic_rating(bl.load, target_rev, b.rolling, b.reliability, method="weibull",
+                                                     path=where))
+            det = dict(bl.details, L10=l10, L10h=float(brg.life_hours(l10, bl.speed, where)), Lnm=lnm, Lnmh=hours,
+                       required_C=need)
             comp = f"{shaft.id}/{bl.support}"
             at = next(s.at for s in shaft.supports if s.id == bl.support)
             rel = f"{b.reliability * 100:g} %"
@@ -184,7 +188,10 @@ def _bearing_duty(runs: tuple[CaseResult, ...]) -> list[RatingCheck]:
         life = brg.duty_cycle_life(b.C, loads, speeds, shares, b.rolling, b.reliability, method="weibull",
                                    path=where)
         shaft = drive.shafts[i]
-        det = {"equivalent_load": float(life.equivalent_load), "Lnm": float(life.life), "Lnmh": float(life.hours)}
+        # The life goes as C^p, so the rating that just reaches the target follows by scaling.
+        need = b.C * (b.target_life / float(life.hours)) ** (1.0 / brg.LIFE_EXPONENT[b.rolling])
+        det = {"equivalent_load": float(life.equivalent_load), "Lnm": float(life.life), "Lnmh": float(life.hours),
+               "required_C": need}
         for r, share in zip(runs, np.atleast_1d(life.damage_share)):
             det[f"damage_share[{r.case.name}]"] = float(share)
         at = next(s.at for s in shaft.supports if s.id == sid)

@@ -97,6 +97,10 @@ def test_deep_groove_life_by_hand(ratings, drive):
     assert c.allowable == b.target_life and c.sense == "min"
     assert c.margin == pytest.approx(hours / b.target_life - 1, rel=1e-12)
     assert "ISO 281" in c.method
+    # the inverse: the rating that just reaches the target life (ISO 281 cl. 7.1 solved for C)
+    assert c.details["required_C"] == pytest.approx(p * (b.target_life * 60 * n_rpm / 1e6) ** (1 / 3), rel=1e-12)
+    duty = _one(ratings.duty, "bearing", "input/A", "life")
+    assert duty.details["required_C"] == pytest.approx(b.C * (b.target_life / duty.value) ** (1 / 3), rel=1e-12)
 
 
 def test_tapered_pair_carries_the_thrust_by_the_catalogue_method(ratings, drive):
