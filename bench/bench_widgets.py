@@ -39,32 +39,37 @@ def main() -> None:
     page_bytes = rec.size
     print(f"DriveExplorer on the demo drive: built in {t_build * 1e3:.0f} ms; widget state {build_bytes / 1e3:.0f} kB,"
           f" whole figures on a page load {page_bytes / 1e3:.0f} kB")
-    print(f"{'control':28} {'moves':>5} {'median':>9} {'p90':>9} {'max':>9} {'bytes median':>13} {'max':>8} "
-          f"{'msgs':>5}")
+    print(f"{'control':28} {'moves':>5} {'median':>9} {'p90':>9} {'max':>9} {'CPU med':>9} {'bytes median':>13} "
+          f"{'max':>8} {'msgs':>5}")
     all_t: list[float] = []
+    all_c: list[float] = []
     all_b: list[int] = []
     for key, values in MOVES:
         ex.panel.set_value(key, values[0])    # warm up on this control
-        times, sizes, counts = [], [], []
+        times, cpu, sizes, counts = [], [], [], []
         for v in values[1:]:
             rec.clear()
-            t0 = time.perf_counter()
+            t0, c0 = time.perf_counter(), time.process_time()
             ex.panel.set_value(key, v)
             times.append(time.perf_counter() - t0)
+            cpu.append(time.process_time() - c0)
             sizes.append(rec.size)
             counts.append(len(rec.messages))
             if ex.state.error:
                 raise SystemExit(f"{key} = {v}: {ex.state.error}")
         all_t += times
+        all_c += cpu
         all_b += sizes
         times.sort()
         print(f"{key:28} {len(times):5d} {statistics.median(times) * 1e3:7.1f}ms "
               f"{times[int(0.9 * len(times))] * 1e3:7.1f}ms {times[-1] * 1e3:7.1f}ms "
-              f"{statistics.median(sizes) / 1e3:11.1f}kB {max(sizes) / 1e3:6.1f}kB {statistics.median(counts):5.0f}")
+              f"{statistics.median(cpu) * 1e3:7.1f}ms {statistics.median(sizes) / 1e3:11.1f}kB "
+              f"{max(sizes) / 1e3:6.1f}kB {statistics.median(counts):5.0f}")
     print(f"{'all moves':28} {len(all_t):5d} {statistics.median(all_t) * 1e3:7.1f}ms "
           f"{sorted(all_t)[int(0.9 * len(all_t))] * 1e3:7.1f}ms {max(all_t) * 1e3:7.1f}ms "
-          f"{statistics.median(all_b) / 1e3:11.1f}kB {max(all_b) / 1e3:6.1f}kB")
-    print("targets: median < 30 ms, < 20 kB per move")
+          f"{statistics.median(all_c) * 1e3:7.1f}ms {statistics.median(all_b) / 1e3:11.1f}kB {max(all_b) / 1e3:6.1f}kB")
+    print("targets: median < 30 ms, < 20 kB per move (CPU: this process's processor time, which other load on "
+          "the machine does not inflate)")
 
 
 if __name__ == "__main__":

@@ -18,11 +18,10 @@ import html
 from typing import Any
 
 import ipywidgets as W
-import numpy as np
 
 from .. import CAUTION
 from ..kernel.solve import DriveResult
-from ..report import tables
+from ..report import table_rows
 from ..viz import force_scene, reaction_bars, shaft_diagrams
 from ..viz.style import PALETTE, number
 from .plotview import PlotView
@@ -165,42 +164,41 @@ def _delta_text(d: float) -> str:
     return ("+" if d > 0 else "−") + number(abs(d))
 
 
-def _table_html(name: str, now: Any, pinned: Any, keep: Any) -> str:
-    cols = list(now.columns)
-    values = {c: now[c].tolist() for c in cols}
-    numeric = [c for c in cols if now[c].dtype.kind in "fi"]
-    ids = [c for c in cols if c not in numeric]
-    rows = [i for i in range(len(now)) if keep({c: values[c][i] for c in ids})]
-    if not rows:
+Table = tuple[list[str], list[list[Any]]]
+
+
+def _table_html(name: str, now: Table, pinned: Table | None, keep: Any) -> str:
+    cols, rows = now
+    ids = [j for j, v in enumerate(rows[0]) if isinstance(v, str)] if rows else []
+    shown = [r for r in rows if keep({cols[j]: r[j] for j in ids})]
+    if not shown:
         return ""
-    before = None
-    if pinned is not None and list(pinned.columns) == cols and len(pinned) == len(now):
-        before = {c: pinned[c].tolist() for c in cols}
-        if any(before[c] != values[c] for c in ids):
-            before = None                       # other rows: nothing to compare
+    before: dict[tuple, list[Any]] | None = None
+    if pinned is not None and pinned[0] == cols:
+        before = {tuple(r[j] for j in ids): r for r in pinned[1]}
     head = "".join(f"<th>{html.escape(c)}</th>" for c in cols)
     body = []
-    for i in rows:
+    for r in shown:
+        old = before.get(tuple(r[j] for j in ids)) if before is not None else None
         cells = []
-        for c in cols:
-            v = values[c][i]
-            if c in numeric:
-                text = number(float(v))
-                if before is not None:
-                    text += f"<span class='d'>{_delta_text(float(v) - float(before[c][i]))}</span>"
-                cells.append(f"<td class='n'>{text}</td>")
-            else:
-                cells.append(f"<td>{html.escape(str(v))}</td>")
+        for j, v in enumerate(r):
+            if isinstance(v, str):
+                cells.append(f"<td>{html.escape(v)}</td>")
+                continue
+            text = number(float(v))
+            if old is not None:
+                text += f"<span class='d'>{_delta_text(float(v) - float(old[j]))}</span>"
+            cells.append(f"<td class='n'>{text}</td>")
         body.append("<tr>" + "".join(cells) + "</tr>")
     title = html.escape(TABLE_TITLES.get(name, name))
     return f"<table data-table='{name}'><caption>{title}</caption><tr>{head}</tr>{''.join(body)}</table>"
 
 
 class LoadTable(W.HTML):
-    """Every load of the drive in tables (``loadscope.report.tables``), in
-    the chosen units; with a pinned state, each value carries its change
-    from the pinned one (small, after the value). ``shafts`` keeps only the
-    rows of those shafts (None: all)."""
+    """Every load of the drive in tables (``loadscope.report.table_rows``),
+    in the chosen units; with a pinned state, each value carries its change
+    from the pinned one (small, after the value; rows matched by their ids).
+    ``shafts`` / ``meshes`` keep only the rows of those (None: all)."""
 
     def __init__(self, state: ExplorerState, shafts: tuple[str, ...] | None = None,
                  meshes: tuple[str, ...] | None = None) -> None:
@@ -209,10 +207,17 @@ class LoadTable(W.HTML):
         self.state = state
         self._shafts = shafts
         self._meshes = meshes
-        self.frames: dict[str, Any] = {}
-        self._pinned_frames: tuple[Any, str, dict[str, Any]] | None = None
+        self.tables: dict[str, Table] = {}
+        self._pinned_tables: tuple[Any, str, dict[str, Table]] | None = None
         state.observe(self.redraw, ["result", "units", "pinned"])
         self.redraw()
+
+    @property
+    def frames(self) -> dict[str, Any]:
+        """The tables shown, as pandas DataFrames."""
+        import pandas as pd
+
+        return {k: pd.DataFrame(rows, columns=cols) for k, (cols, rows) in self.tables.items()}
 
     def _keep(self, name: str) -> Any:
         if name in ("shafts", "reactions") and self._shafts is not None:
@@ -223,31 +228,23 @@ class LoadTable(W.HTML):
             return lambda row: False
         return lambda row: True
 
-    def _pinned_tables(self) -> dict[str, Any]:
+    def _pinned(self) -> dict[str, Table]:
         st = self.state
         if st.pinned is None:
             return {}
-        cached = self._pinned_frames
+        cached = self._pinned_tables
         if cached is None or cached[0] is not st.pinned or cached[1] != st.units:
-            cached = self._pinned_frames = (st.pinned, st.units, tables(st.pinned, st.units))
+            cached = self._pinned_tables = (st.pinned, st.units, table_rows(st.pinned, st.units))
         return cached[2]
 
     def redraw(self, _change: Any = None) -> None:
         st = self.state
-        self.frames = tables(st.result, st.units)
-        before = self._pinned_tables()
-        parts = [_table_html(n, f, before.get(n), self._keep(n)) for n, f in self.frames.items()]
+        self.tables = table_rows(st.result, st.units)
+        before = self._pinned()
+        parts = [_table_html(n, t, before.get(n), self._keep(n)) for n, t in self.tables.items()]
         pin = ("<p class='pin'>Small figures after each value: change from the pinned state.</p>"
                if st.pinned is not None else "")
         self.value = pin + "".join(parts) + f"<p class='caution'>Caution: {html.escape(CAUTION)}</p>"
-
-
-def table_value(frame: Any, match: dict[str, str], column: str) -> float:
-    """One number of a report table, found by the values of its id columns."""
-    mask = np.ones(len(frame), dtype=bool)
-    for k, v in match.items():
-        mask &= (frame[k] == v).to_numpy()
-    return float(frame[column][mask].iloc[0])
 
 
 #: the explorer's own styles (colours from loadscope.viz.style)
