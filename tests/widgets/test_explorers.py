@@ -10,7 +10,7 @@ import math
 import numpy as np
 import pandas as pd
 import pytest
-from conftest import demo_with, solve_snapshot
+from widget_drives import demo_with, solve_snapshot
 
 from loadscope import InputError
 from loadscope.report import tables
