@@ -60,7 +60,7 @@ def _solve_and_format(drive, fmt: str, units: str) -> str:
         return to_html(result, units, ratings)
     if fmt == "json":
         doc = report.result_to_dict(result, units)
-        doc["ratings"] = report.ratings_to_dict(ratings, units)
+        doc["ratings"] = report.ratings_to_dict(ratings, units, loads=True)
         return json.dumps(doc, indent=2) + "\n"
     if fmt == "csv":
         return report.loads_and_margins_csv(result, ratings, units)

@@ -264,13 +264,14 @@ class Feature:
 class StiffnessLimits:
     """Allowable deflections [m] and slopes [rad]. Defaults are the usual
     limits of the trade (Shigley 9th ed. Table 7-2, from memory):
-    gear deflection 0.127 mm (0.005 in, gears of 11 to 19 teeth/in), gear
+    gear deflection by tooth size when ``gear_deflection`` is None (the
+    default; see :meth:`gear_deflection_for`), gear
     slope and mesh misalignment 0.5 mrad (uncrowned spur gears), bearing
     slope by type: deep-groove ball 1 mrad (lower end of 1..3 mrad),
     tapered roller 0.5 mrad, angular-contact ball 0.5 mrad (common practice:
     treated like tapered rollers), custom or no bearing 1 mrad."""
 
-    gear_deflection: float = 0.127e-3
+    gear_deflection: float | None = None
     gear_slope: float = 0.5e-3
     mesh_misalignment: float = 0.5e-3
     deep_groove_slope: float = 1.0e-3
@@ -291,7 +292,28 @@ class StiffnessLimits:
 
     def __post_init__(self) -> None:
         for name in self.SOURCES:
-            checks.positive(getattr(self, name), f"{self.path}.{name}", "m" if name == "gear_deflection" else "rad")
+            v = getattr(self, name)
+            if v is not None:
+                checks.positive(v, f"{self.path}.{name}", "m" if name == "gear_deflection" else "rad")
+
+    def gear_deflection_for(self, pitch_radius: float, teeth: int | None) -> tuple[float, str]:
+        """(allowable deflection [m], source) at a gear. Unless overridden, by
+        Shigley 9th ed. Table 7-2 (from memory) in the gear's diametral pitch
+        P = 25.4 / m [teeth/in] with the transverse module m = 2 r / z [mm]:
+        0.010 in below P = 11, 0.005 in from 11 to below 20, 0.003 in from
+        20; 0.005 in when the tooth count is not given.
+
+        >>> StiffnessLimits().gear_deflection_for(0.0285, 19)[0] * 1e3     # m = 3 mm, P = 8.5
+        0.254
+        """
+        if self.gear_deflection is not None:
+            return self.gear_deflection, "user limit"
+        src = "Shigley 9th ed. Table 7-2 (from memory)"
+        if not teeth:
+            return 0.005 * 0.0254, f"{src}, tooth size unknown: 0.005 in"
+        p_dia = 25.4 / (2e3 * pitch_radius / teeth)
+        inches = 0.010 if p_dia < 11 else 0.005 if p_dia < 20 else 0.003
+        return inches * 0.0254, f"{src}, P = {p_dia:.3g} teeth/in: {inches:g} in"
 
     def bearing_slope(self, bearing_type: str | None) -> tuple[float, str]:
         """(limit [rad], field name) for a bearing type (None: no bearing data)."""

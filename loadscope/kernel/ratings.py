@@ -211,7 +211,8 @@ def _bolt_checks(case: str, res: DriveResult) -> list[RatingCheck]:
         thread = "thread" if f.shear_plane == "thread" else "shank"
         out.append(RatingCheck(case, "bolt", comp, f"tension + shear vs proof ({thread} in shear)",
                                float(chk.proof_factor), f.required_factor, "factor", "min",
-                               f"von Mises, Shigley 9th ed. Eq. 8-24 and Sec. 8-12; {strength.source}", path,
+                               f"von Mises, Shigley 9th ed. Eq. 8-24 and Sec. 8-12, no friction counted; "
+                               f"{strength.source}", path,
                                None, det))
         if f.preload > 0.0 and f.stiffness_fraction < 1.0 and ext > 0.0:
             n0 = f.preload / (ext * (1.0 - f.stiffness_fraction))

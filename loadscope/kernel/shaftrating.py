@@ -28,6 +28,7 @@ from typing import Any
 
 import numpy as np
 
+from ..errors import InputError
 from . import sections as sec
 from .model import Shaft
 from .ratingcheck import RatingCheck
@@ -71,14 +72,8 @@ def loads_at(diagram: dict[str, Any], x: float) -> dict[str, float]:
 
 def section_at(shaft: Shaft, x: float) -> tuple[float, float]:
     """(diameter, bore) [m] at ``x``; at a step, the section of the smaller diameter."""
-    start = 0.0
-    found: list[tuple[float, float]] = []
-    for s in shaft.sections:
-        end = start + s.length
-        if start - _TOL <= x <= end + _TOL:
-            found.append((s.diameter, s.bore))
-        start = end
-    return min(found) if found else (shaft.sections[-1].diameter, shaft.sections[-1].bore)
+    sec_ = shaft.sections[_section_index(shaft, x)]
+    return sec_.diameter, sec_.bore
 
 
 def _steps(shaft: Shaft) -> list[float]:
@@ -135,9 +130,21 @@ def _clean(value: float, scale: float) -> float:
     return 0.0 if abs(value) <= 1e-9 * scale else abs(value)
 
 
+def _section_index(shaft: Shaft, x: float) -> int:
+    """Index of the section that :func:`section_at` takes at ``x``."""
+    start, best = 0.0, -1
+    for k, s in enumerate(shaft.sections):
+        end = start + s.length
+        if start - _TOL <= x <= end + _TOL and (best < 0 or s.diameter < shaft.sections[best].diameter):
+            best = k
+        start = end
+    return best if best >= 0 else len(shaft.sections) - 1
+
+
 def section_checks(case: str, result: DriveResult) -> list[RatingCheck]:
     """Fatigue and first-cycle yield at every critical section of every shaft
-    that has a material (see the module docstring)."""
+    that has a material (see the module docstring). Each shaft's sections
+    go through the formula functions as one array."""
     out: list[RatingCheck] = []
     for shaft, sr in zip(result.drive.shafts, result.shafts):
         mat = shaft.material
@@ -147,31 +154,45 @@ def section_checks(case: str, result: DriveResult) -> list[RatingCheck]:
         crit = _NAMES[mat.criterion]
         diag = sr.solution.diagram
         scale = {k: float(np.abs(diag[k]).max(initial=0.0)) for k in ("M", "T", "N")}
-        for label, x, kf, kfs, note, path in _critical(shaft, sr, mat):
-            ld = loads_at(diag, x)
-            dia, bore = section_at(shaft, x)
-            ma, tm, fm = (_clean(ld[k], scale[k]) for k in ("M", "T", "N"))
-            ta = shaft.alternating_torque * tm
-            se = sec.marin_endurance_limit(mat.Sut, mat.finish, dia, "bending", mat.temperature, mat.reliability,
-                                           mat.Se_prime, path=mpath)
-            nf = float(sec.shaft_fatigue_factor(dia, ma, tm, kf, kfs, se.se, mat.Sut, mat.Sy, mat.criterion,
-                                                ta=ta, fm=fm, bore=bore, path=path))
-            ny = float(sec.shaft_yield_factor(dia, ma, tm, kf, kfs, mat.Sy, ta=ta, fm=fm, bore=bore, path=path))
-            st = sec.shaft_stresses(dia, ma, tm, kf, kfs, ta=ta, fm=fm, bore=bore, path=path)
-            det = {"diameter": dia, "bore": bore, "M": ma, "T": tm, "N": ld["N"], "Kf": kf, "Kfs": kfs,
-                   "bending_stress": float(sec.bending_stress(ma, dia, bore)),
-                   "torsion_stress": float(sec.torsion_stress(tm, dia, bore)),
-                   "axial_stress": float(sec.axial_stress(ld["N"], dia, bore)),
-                   "von_mises_max": float(st.maximum), "alternating_vm": float(st.alternating),
-                   "midrange_vm": float(st.midrange), "Se": float(se.se), "ka": float(se.ka), "kb": float(se.kb),
-                   "kd": float(se.kd), "ke": float(se.ke), "fatigue_factor": nf, "yield_factor": ny}
+        crits = _critical(shaft, sr, mat)
+        loads = [loads_at(diag, c[1]) for c in crits]
+        idx = [_section_index(shaft, c[1]) for c in crits]
+        for k in sorted(set(idx)):
+            d_k = shaft.sections[k].diameter
+            if not sec.SIZE_RANGE[0] <= d_k <= sec.SIZE_RANGE[1]:
+                raise InputError(f"{shaft.path or shaft.id}.sections[{k}].diameter",
+                                 f"{d_k * 1e3:.6g} mm lies outside the Marin size factor's range (Shigley 9th ed. "
+                                 "Eq. 6-20); this shaft cannot be rated for fatigue", "2.79 to 254 mm")
+        dia = np.array([shaft.sections[k].diameter for k in idx])
+        bore = np.array([shaft.sections[k].bore for k in idx])
+        ma, tm, fm = (np.array([_clean(ld[q], scale[q]) for ld in loads]) for q in ("M", "T", "N"))
+        n_axial = np.array([ld["N"] for ld in loads])
+        ta = shaft.alternating_torque * tm
+        kf = np.array([c[2] for c in crits])
+        kfs = np.array([c[3] for c in crits])
+        where = shaft.path or shaft.id
+        se = sec.marin_endurance_limit(mat.Sut, mat.finish, dia, "bending", mat.temperature, mat.reliability,
+                                       mat.Se_prime, path=mpath)
+        nf = np.atleast_1d(sec.shaft_fatigue_factor(dia, ma, tm, kf, kfs, se.se, mat.Sut, mat.Sy, mat.criterion,
+                                                    ta=ta, fm=fm, bore=bore, path=where))
+        ny = np.atleast_1d(sec.shaft_yield_factor(dia, ma, tm, kf, kfs, mat.Sy, ta=ta, fm=fm, bore=bore, path=where))
+        st = sec.shaft_stresses(dia, ma, tm, kf, kfs, ta=ta, fm=fm, bore=bore, path=where)
+        cols = {"diameter": dia, "bore": bore, "M": ma, "T": tm, "N": n_axial, "Kf": kf, "Kfs": kfs,
+                "bending_stress": sec.bending_stress(ma, dia, bore),
+                "torsion_stress": sec.torsion_stress(tm, dia, bore),
+                "axial_stress": sec.axial_stress(n_axial, dia, bore), "von_mises_max": st.maximum,
+                "alternating_vm": st.alternating, "midrange_vm": st.midrange, "Se": se.se, "ka": se.ka, "kb": se.kb,
+                "kd": se.kd, "ke": se.ke, "fatigue_factor": nf, "yield_factor": ny}
+        table = {k: np.broadcast_to(np.asarray(v, dtype=float), dia.shape) for k, v in cols.items()}
+        for j, (label, x, _, _, note, path) in enumerate(crits):
+            det = {k: float(v[j]) for k, v in table.items()}
             comp = f"{shaft.id} at {label}"
-            out.append(RatingCheck(case, "shaft section", comp, f"fatigue factor, {crit}", nf,
+            out.append(RatingCheck(case, "shaft section", comp, f"fatigue factor, {crit}", float(nf[j]),
                                    mat.required_factor, "factor", "min",
                                    f"{crit}, Shigley 9th ed. Eqs. 7-7 to 7-14; Se by Marin factors Eq. 6-18; {note}",
                                    path, x, det))
             out.append(RatingCheck(case, "shaft section", comp, "first-cycle yield factor, von Mises",
-                                   ny, mat.required_factor, "factor", "min",
+                                   float(ny[j]), mat.required_factor, "factor", "min",
                                    f"Shigley 9th ed. Eq. 7-16; {note}", path, x, det))
     return out
 
@@ -201,11 +222,11 @@ def stiffness_checks(case: str, result: DriveResult) -> list[RatingCheck]:
             where[g.id] = (shaft, sr, g.at)
             ld = loads_at(diag, g.at)
             det = {"deflection": ld["deflection"], "slope": ld["slope"], "v1": ld["v1"], "v2": ld["v2"]}
+            allow, src = lim.gear_deflection_for(g.pitch_radius, g.teeth)
             comp = f"{shaft.id} at {g.id}"
             path = g.path or comp
             out.append(RatingCheck(case, "stiffness", comp, "deflection at gear", ld["deflection"],
-                                   lim.gear_deflection, "deflection", "max",
-                                   f"Euler-Bernoulli deflection; limit {lim.source('gear_deflection')}", path, g.at,
+                                   allow, "deflection", "max", f"Euler-Bernoulli deflection; limit {src}", path, g.at,
                                    det))
             out.append(RatingCheck(case, "stiffness", comp, "slope at gear", ld["slope"], lim.gear_slope, "slope",
                                    "max", f"Euler-Bernoulli slope; limit {lim.source('gear_slope')}", path, g.at,

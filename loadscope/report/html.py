@@ -4,8 +4,10 @@
 into one page that opens offline: the caution, the drive as entered (in
 display units), every load (the tables of :func:`loadscope.report.tables`),
 the force scene, the reaction bars and each shaft's diagrams as interactive
-figures, the margins of the ratings when they are given, the methods and
-their published sources, a timestamp and the loadscope version.
+figures; when the ratings are given, the load cases with every bearing
+reaction in each (and the reaction bars of all cases side by side) and the
+margins tables; the methods and their published sources, a timestamp and
+the loadscope version.
 
 The page makes no network request: plotly.js comes from the installed
 plotly package and is embedded once; the styles are a small inline sheet
@@ -257,12 +259,36 @@ def _figure(spec: dict[str, Any], ident: str, caption: str) -> str:
     return f'<figure id="{_e(ident)}-figure">{div}<figcaption>{_e(caption)}</figcaption></figure>'
 
 
-def _figures(result: DriveResult, units: str) -> str:
+def _load_cases(ratings: Any, units: str) -> str:
+    """The load cases of the ratings: what each is, and every bearing reaction in each."""
+    f = label(units, "force")
+    cases = [(cr.case, cr.result) for cr in ratings.cases]
+    out = ['<h3 id="load-cases">Load cases</h3>',
+           _table(["case", "share of time", f"input speed [{label(units, 'speed')}]",
+                   f"power [{label(units, 'power')}]", f"torque [{label(units, 'moment')}]"],
+                  [[c.name, c.share, _c(r.drive.speed, units, "speed"),
+                    None if c.power is None else _c(c.power, units, "power"),
+                    None if c.torque is None else _c(c.torque, units, "moment")] for c, r in cases],
+                  "load cases (an empty power or torque keeps the drive's own)", "table-cases"),
+           _table(["case", "shaft", "support", f"Rx [{f}]", f"Ry [{f}]", f"Rz [{f}]", f"radial [{f}]", f"axial [{f}]"],
+                  [[c.name, sr.id, sid, *(_c(x, units, "force") for x in rg),
+                    _c(float(np.hypot(rl[1], rl[2])), units, "force"), _c(float(rl[0]), units, "force")]
+                   for c, r in cases for sr in r.shafts
+                   for sid, rg, rl in zip(sr.solution.support_ids, sr.solution.reactions_global,
+                                          sr.solution.reactions_local)],
+                  "bearing reactions in each load case", "table-case-reactions")]
+    return "\n".join(out)
+
+
+def _figures(result: DriveResult, units: str, ratings: Any = None) -> str:
+    cases = {cr.case.name: cr.result for cr in ratings.cases} if ratings is not None else None
+    bars = "Radial and axial load of every bearing" + (", in each load case (one fill pattern per case)."
+                                                        if cases else ".")
     out = ['<h2 id="figures">Figures</h2>',
            _figure(force_scene(result, units, show="both"), "fig-scene",
                    "The drive with its tooth forces and bearing reactions (drag to turn; click a legend entry to "
                    "show or hide it)."),
-           _figure(reaction_bars(result, units), "fig-reactions", "Radial and axial load of every bearing.")]
+           _figure(reaction_bars(result, units, cases=cases), "fig-reactions", bars)]
     for s in result.shafts:
         out.append(_figure(shaft_diagrams(result, s.id, units), f"fig-shaft-{s.id}",
                            f"Shaft {s.id}: shear, bending, torque and deflection along the shaft, in both planes "
@@ -358,6 +384,7 @@ def to_html(result: DriveResult, units: str = "si", ratings: Any = None) -> str:
     methods_used = [r.get("method", "") for rows in (margin_tables or {}).values() for r in rows]
     toc = [("inputs", "Inputs"), ("loads", "Loads"), ("figures", "Figures")]
     if margin_tables is not None:
+        toc[2:2] = [("load-cases", "Load cases")]
         toc.append(("margins", "Margins"))
     toc.append(("methods", "Methods and sources"))
     body = [
@@ -366,7 +393,8 @@ def to_html(result: DriveResult, units: str = "si", ratings: Any = None) -> str:
         f"units: {_e(units.upper())}.</p></header>",
         f'<p class="caution" id="caution" role="note"><strong>Caution.</strong> {_e(CAUTION)}</p>',
         "<nav><ol>" + "".join(f'<li><a href="#{a}">{_e(t)}</a></li>' for a, t in toc) + "</ol></nav>",
-        "<main>", _inputs(result.drive, units), _loads(result, units), _figures(result, units),
+        "<main>", _inputs(result.drive, units), _loads(result, units),
+        _load_cases(ratings, units) if ratings is not None else "", _figures(result, units, ratings),
         margins_section(margin_tables, units) if margin_tables is not None else "",
         _methods(methods_used, units), "</main>",
         f'<footer><p class="caution">{_e(CAUTION)}</p><p>loadscope {_e(__version__)}, {_e(stamp)}.</p></footer>',

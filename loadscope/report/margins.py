@@ -91,10 +91,14 @@ def _json_number(x: float) -> float | str:
     return x if math.isfinite(x) else ("inf" if x > 0 else "-inf")
 
 
-def ratings_to_dict(ratings: DriveRatings, units: str = "si") -> dict[str, Any]:
+def ratings_to_dict(ratings: DriveRatings, units: str = "si", loads: bool = False) -> dict[str, Any]:
     """The ratings as JSON-ready data: the caution, the watch band, each
-    load case (its inputs and its margins) and the duty cycle. Infinite
-    margins (unloaded parts) are written as the string ``"inf"``."""
+    load case (its inputs and its margins; with ``loads`` also every load of
+    the case, as :func:`~loadscope.report.result_to_dict` gives them) and the
+    duty cycle. Infinite margins (unloaded parts) are written as the string
+    ``"inf"``."""
+    from .results import result_to_dict
+
     def rows(case: str) -> list[dict[str, Any]]:
         return [{k: (_json_number(v) if isinstance(v, float) else v) for k, v in r.items()}
                 for r in margins_rows(ratings, case, units)]
@@ -107,6 +111,9 @@ def ratings_to_dict(ratings: DriveRatings, units: str = "si") -> dict[str, Any]:
                       "torque": None if c.torque is None else float(convert(c.torque, units, "moment")),
                       "speed": float(convert(cr.result.drive.speed, units, "speed")),
                       "margins": rows(c.name)})
+        if loads:
+            doc = result_to_dict(cr.result, units)
+            cases[-1]["loads"] = {k: v for k, v in doc.items() if k not in ("format", "version", "caution")}
     return {"caution": CAUTION, "watch_band": WATCH_BAND,
             "margin": "allowable/value - 1 for limits not to exceed, value/allowable - 1 for values to reach",
             "cases": cases, "duty_cycle": {"name": DUTY_CYCLE, "margins": rows(DUTY_CYCLE)}}
@@ -162,7 +169,8 @@ def loads_and_margins_csv(result: Any, ratings: DriveRatings, units: str = "si")
     """One CSV text: every load of ``result`` (as :func:`~loadscope.report.to_csv`
     writes them) followed by every governing check of every case and the duty
     cycle (group ``margin``, item the component, quantity the check), with
-    the extra columns case, kind, allowable, margin, status, method."""
+    the extra columns case, kind, allowable, margin, status, method; the
+    last row (group ``caution``) carries the caution in its method column."""
     import csv
     import io
 
@@ -185,4 +193,5 @@ def loads_and_margins_csv(result: Any, ratings: DriveRatings, units: str = "si")
                 "group": "margin", "item": r["component"], "quantity": r["check"], "value": r["value"],
                 "unit": r["unit"], "case": r["case"], "kind": r["kind"], "allowable": r["allowable"],
                 "margin": r["margin"], "status": r["status"], "method": r["method"]}.items()})
+    w.writerow({"group": "caution", "unit": "-", "method": CAUTION})
     return buf.getvalue()

@@ -13,6 +13,7 @@ from typing import Literal
 
 from pydantic import Field
 
+from ..kernel.model import Drive
 from ..kernel.ratingdata import (
     Bearing,
     BearingPair,
@@ -106,7 +107,8 @@ _LIM = StiffnessLimits()
 class LimitsSpec(_Spec):
     """Allowable deflections and slopes (defaults: Shigley 9th ed. Table 7-2, from memory, or common practice)."""
 
-    gear_deflection: Length = _q("length", "deflection at a gear", _LIM.gear_deflection)
+    gear_deflection: Length | None = _q("length", "deflection at a gear; by tooth size when omitted (0.010, "
+                                                  "0.005 or 0.003 in, Shigley 9th ed. Table 7-2)", None)
     gear_slope: Angle = _q("angle", "slope at a gear", _LIM.gear_slope)
     mesh_misalignment: Angle = _q("angle", "relative slope of two gears in mesh", _LIM.mesh_misalignment)
     deep_groove_slope: Angle = _q("angle", "slope at a deep-groove ball bearing", _LIM.deep_groove_slope)
@@ -210,7 +212,7 @@ def write_limits(lim: StiffnessLimits) -> LimitsSpec | None:
     """None for the default limits (they need not be written)."""
     if lim == StiffnessLimits():
         return None
-    return LimitsSpec.model_construct(**{k: float(getattr(lim, k)) for k in LimitsSpec.model_fields})
+    return LimitsSpec.model_construct(**{k: _f(getattr(lim, k)) for k in LimitsSpec.model_fields})
 
 
 def write_fastener(f: Fastener) -> FastenerSpec:
@@ -223,3 +225,11 @@ def write_fastener(f: Fastener) -> FastenerSpec:
 def write_case(c: LoadCase) -> CaseSpec:
     return CaseSpec.model_construct(name=c.name, share=float(c.share), power=_f(c.power), torque=_f(c.torque),
                                     speed=_f(c.speed))
+
+
+def has_rating_data(drive: Drive) -> bool:
+    """Whether the drive carries any rating data (which a version-1 snapshot cannot hold)."""
+    h = drive.housing
+    return bool(drive.cases or drive.limits != type(drive.limits)() or (h is not None and h.fastener is not None)
+                or any(s.material is not None or s.features or s.pair is not None or s.alternating_torque
+                       or any(x.bearing is not None for x in s.supports) for s in drive.shafts))

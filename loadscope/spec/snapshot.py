@@ -34,6 +34,7 @@ from pydantic import BaseModel, Field, ValidationError
 
 from ..errors import InputError
 from ..kernel.model import Bolt, Coupling, Drive, Gear, Housing, Mesh, PointLoad, Port, Pulley, Section, Shaft, Support
+from . import ratingspec as rs
 from .fields import (
     _AT,
     _ID,
@@ -59,29 +60,7 @@ from .fields import (
     _q,
     _Spec,
 )
-from .ratingspec import (
-    BearingSpec,
-    CaseSpec,
-    FastenerSpec,
-    FeatureSpec,
-    LimitsSpec,
-    MaterialSpec,
-    PairSpec,
-    read_bearing,
-    read_case,
-    read_fastener,
-    read_feature,
-    read_limits,
-    read_material,
-    read_pair,
-    write_bearing,
-    write_case,
-    write_fastener,
-    write_feature,
-    write_limits,
-    write_material,
-    write_pair,
-)
+from .ratingspec import BearingSpec, CaseSpec, FastenerSpec, FeatureSpec, LimitsSpec, MaterialSpec, PairSpec
 from .units import DIMENSIONS, STANDARD_GRAVITY
 
 FORMAT = "loadscope.drive"
@@ -406,7 +385,7 @@ def _shaft(s: ShaftSpec, p: str) -> Shaft:
     sections = tuple(Section(x.length, x.diameter, x.bore, path=f"{p}.sections[{i}]")
                      for i, x in enumerate(s.sections))
     supports = tuple(Support(x.id, x.at, x.axial, None if x.bearing is None else
-                             read_bearing(x.bearing, f"{p}.supports[{i}].bearing"), path=f"{p}.supports[{i}]")
+                             rs.read_bearing(x.bearing, f"{p}.supports[{i}].bearing"), path=f"{p}.supports[{i}]")
                      for i, x in enumerate(s.supports))
     gears = []
     for i, g in enumerate(s.gears):
@@ -422,9 +401,9 @@ def _shaft(s: ShaftSpec, p: str) -> Shaft:
                       for i, c in enumerate(s.couplings))
     loads = tuple(PointLoad(x.id, x.at, x.force, x.moment, x.offset, path=f"{p}.loads[{i}]")
                   for i, x in enumerate(s.loads))
-    material = None if s.material is None else read_material(s.material, f"{p}.material")
-    features = tuple(read_feature(f, f"{p}.features[{i}]") for i, f in enumerate(s.features or ()))
-    pair = None if s.pair is None else read_pair(s.pair, f"{p}.pair")
+    material = None if s.material is None else rs.read_material(s.material, f"{p}.material")
+    features = tuple(rs.read_feature(f, f"{p}.features[{i}]") for i, f in enumerate(s.features or ()))
+    pair = None if s.pair is None else rs.read_pair(s.pair, f"{p}.pair")
     return Shaft(s.id, sections, supports, s.origin, s.axis, tuple(gears), tuple(pulleys), couplings, loads, s.E,
                  s.G, material, features, pair, s.alternating_torque or 0.0, path=p)
 
@@ -445,7 +424,7 @@ def _housing(h: HousingSpec) -> Housing:
     p = "housing"
     bolts = tuple(Bolt(b.id, b.position, path=f"{p}.bolts[{i}]") for i, b in enumerate(h.bolts))
     edge = h.tipping_edge
-    fastener = None if h.fastener is None else read_fastener(h.fastener, f"{p}.fastener")
+    fastener = None if h.fastener is None else rs.read_fastener(h.fastener, f"{p}.fastener")
     return Housing(bolts, h.plane_point, h.plane_normal, _weight(h, p), h.center_of_mass, h.bolt_method,
                    edge.point if edge is not None else None, edge.direction if edge is not None else None, fastener,
                    path=p)
@@ -470,21 +449,13 @@ def _build(snap: Snapshot) -> Drive:
     port_in = _port(snap.input, "input", shafts)
     outputs = tuple(_port(o, f"outputs[{j}]", shafts) for j, o in enumerate(snap.outputs))
     housing = _housing(snap.housing) if snap.housing is not None else None
-    cases = tuple(read_case(c, f"cases[{i}]") for i, c in enumerate(snap.cases or ()))
+    cases = tuple(rs.read_case(c, f"cases[{i}]") for i, c in enumerate(snap.cases or ()))
     drive = Drive(shafts, tuple(meshes), port_in, outputs, snap.input.speed, housing, snap.name, cases,
-                  read_limits(snap.limits))
-    if snap.version == 1 and has_rating_data(drive):
+                  rs.read_limits(snap.limits))
+    if snap.version == 1 and rs.has_rating_data(drive):
         raise InputError("version", "rating data (bearings, materials, features, pairs, fasteners, cases, limits) "
                          "needs snapshot version 2", "2")
     return drive
-
-
-def has_rating_data(drive: Drive) -> bool:
-    """Whether the drive carries any rating data (which a version-1 snapshot cannot hold)."""
-    h = drive.housing
-    return bool(drive.cases or drive.limits != type(drive.limits)() or (h is not None and h.fastener is not None)
-                or any(s.material is not None or s.features or s.pair is not None or s.alternating_torque
-                       or any(x.bearing is not None for x in s.supports) for s in drive.shafts))
 
 
 def _check_header(data: Any) -> None:
@@ -574,7 +545,7 @@ def _spec_shaft(s: Shaft) -> ShaftSpec:
         sections=[SectionSpec.model_construct(length=float(x.length), diameter=float(x.diameter),
                                               bore=float(x.bore)) for x in s.sections],
         supports=[SupportSpec.model_construct(id=x.id, at=float(x.at), axial=x.axial,
-                                              bearing=None if x.bearing is None else write_bearing(x.bearing))
+                                              bearing=None if x.bearing is None else rs.write_bearing(x.bearing))
                   for x in s.supports],
         gears=[GearSpec.model_construct(
             id=g.id, at=float(g.at), kind=g.kind, teeth=None if g.teeth is None else int(g.teeth),
@@ -590,8 +561,9 @@ def _spec_shaft(s: Shaft) -> ShaftSpec:
                    for c in s.couplings],
         loads=[LoadSpec.model_construct(id=x.id, at=float(x.at), force=_vec(x.force), moment=_vec(x.moment),
                                         offset=_vec(x.offset)) for x in s.loads],
-        E=float(s.E), G=float(s.G), material=None if s.material is None else write_material(s.material),
-        features=[write_feature(f) for f in s.features] or None, pair=None if s.pair is None else write_pair(s.pair),
+        E=float(s.E), G=float(s.G), material=None if s.material is None else rs.write_material(s.material),
+        features=[rs.write_feature(f) for f in s.features] or None,
+        pair=None if s.pair is None else rs.write_pair(s.pair),
         alternating_torque=float(s.alternating_torque) or None)
 
 
@@ -614,7 +586,7 @@ def snapshot_from_drive(drive: Drive) -> dict:
             bolts=[BoltSpec.model_construct(id=b.id, position=_vec(b.position)) for b in h.bolts],
             plane_point=_vec(h.plane_point), plane_normal=_vec(h.plane_normal), weight=float(h.weight), mass=None,
             center_of_mass=_vec(h.center_of_mass), bolt_method=h.bolt_method, tipping_edge=edge,
-            fastener=None if h.fastener is None else write_fastener(h.fastener))
+            fastener=None if h.fastener is None else rs.write_fastener(h.fastener))
     i = drive.input
     snap = Snapshot.model_construct(
         format=FORMAT, version=VERSION, name=drive.name,
@@ -625,7 +597,7 @@ def snapshot_from_drive(drive: Drive) -> dict:
                                         power=_opt(i.power), torque=_opt(i.torque), share=float(i.share)),
         outputs=[OutputSpec.model_construct(shaft=o.shaft, element=o.element, power=_opt(o.power),
                                             torque=_opt(o.torque), share=float(o.share)) for o in drive.outputs],
-        housing=housing, cases=[write_case(c) for c in drive.cases] or None, limits=write_limits(drive.limits))
+        housing=housing, cases=[rs.write_case(c) for c in drive.cases] or None, limits=rs.write_limits(drive.limits))
     return snap.model_dump(mode="json", exclude_none=True)
 
 

@@ -140,6 +140,9 @@ def test_json_and_csv_carry_the_margins(demo_file, capsys, tmp_path):
     assert "qualified engineer" in r["caution"]
     assert [c["name"] for c in r["cases"]] == ["rated", "part load", "jam"]
     assert all(m["method"] and m["status"] in ("pass", "watch", "fail") for c in r["cases"] for m in c["margins"])
+    # every load exists per case: the jam case (7.5 kW) loads the input shaft 7.5 / 5.5 times the rated one
+    rated, jam = (c["loads"]["shafts"][0]["torque"] for c in r["cases"][::2])
+    assert jam / rated == pytest.approx(7.5 / 5.5, rel=1e-12)
     out = tmp_path / "m.csv"
     assert main(["solve", str(demo_file), "--format", "csv", "--out", str(out)]) == 0
     rows = list(csv.DictReader(io.StringIO(out.read_text())))
@@ -147,6 +150,7 @@ def test_json_and_csv_carry_the_margins(demo_file, capsys, tmp_path):
     assert {x["case"] for x in margins} == {"rated", "part load", "jam", "duty cycle"}
     assert all(x["status"] and x["method"] and x["allowable"] for x in margins)
     assert any(x["group"] == "reaction" for x in rows)
+    assert rows[-1]["group"] == "caution" and "qualified engineer" in rows[-1]["method"]
 
 
 def test_bad_rating_data_is_one_clear_line(demo_file, tmp_path):

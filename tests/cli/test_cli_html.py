@@ -25,6 +25,8 @@ def test_html_report_written_to_a_file(demo_file, tmp_path, capsys):
     text = out.read_text(encoding="utf-8")
     assert text.startswith("<!DOCTYPE html>") and text.rstrip().endswith("</html>")
     assert CAUTION in text and "Rx [lbf]" in text
+    # The CLI rates the drive: the margins of each load case and of the duty cycle are in the page.
+    assert 'id="margins"' in text and 'id="margins-duty-cycle"' in text
 
 
 def test_html_report_to_standard_output(demo_file, capsys):

@@ -18,6 +18,8 @@ from statistics import NormalDist
 
 import numpy as np
 import pytest
+from hypothesis import given, settings
+from strategies import drives
 
 from loadscope import LoadCase, StiffnessLimits, rate, solve, spec
 from loadscope.kernel.cases import apply_case, drive_cases, solve_cases
@@ -209,6 +211,10 @@ def test_stiffness_and_mesh_misalignment(ratings, drive):
     sol = res.shaft("output").solution
     k = int(np.flatnonzero(np.isclose(sol.stations, 0.110, atol=1e-12))[0])
     assert g4.value == pytest.approx(float(np.hypot(*sol.deflection_at[k])), rel=1e-9)
+    # Shigley 9th ed. Table 7-2 (from memory): 0.010 in for P < 11 teeth/in (g4: m = 3 mm, P = 8.47),
+    # 0.005 in for 11 <= P < 20 (p1: m_t = 2 * 21.743 / 21 = 2.071 mm, P = 12.3).
+    assert g4.allowable == pytest.approx(0.010 * 0.0254, rel=1e-15)
+    assert _one(cr.checks, "stiffness", "input at p1", "deflection").allowable == pytest.approx(0.005 * 0.0254)
 
 
 def test_tighter_limits_make_a_check_fail(drive):
@@ -261,3 +267,34 @@ def test_governing_takes_the_smallest_margin_per_component():
     mk = lambda comp, v: RatingCheck("c", "bolt", comp, f"x{v}", v, 1.0, "factor", "min", "m")  # noqa: E731
     g = governing([mk("a", 2.0), mk("a", 1.2), mk("b", 3.0), mk("b", 0.9)])
     assert [(c.component, c.value) for c in g] == [("b", 0.9), ("a", 1.2)]
+
+
+def test_a_shaft_beyond_the_marin_size_range_is_named(drive):
+    from loadscope import InputError, Section
+    s2 = drive.shafts[2]
+    big = dataclasses.replace(s2, sections=(*s2.sections[:1], Section(s2.sections[1].length, 0.3),
+                                            *s2.sections[2:]))
+    with pytest.raises(InputError) as exc:
+        rate(dataclasses.replace(drive, shafts=(*drive.shafts[:2], big)))
+    assert exc.value.path == "shafts[2].sections[1].diameter" and exc.value.accepted == "2.79 to 254 mm"
+
+
+@settings(max_examples=15, deadline=None)
+@given(drives())
+def test_random_drives_rate_without_nan(d):
+    # Property: every check of a random valid drive is a number (or inf for an unloaded part),
+    # and a cycle of one case gives that case's bearing life (ISO 281 cl. 6.3 with one term).
+    from loadscope import Bearing, Material
+    shafts = tuple(dataclasses.replace(
+        s, material=Material(700e6, 500e6),
+        supports=tuple(dataclasses.replace(p, bearing=Bearing("custom", 40e3, 10000.0, x=0.56, y=1.5, e=0.3,
+                                                              kind="ball")) for p in s.supports))
+        for s in d.shafts)
+    r = rate(dataclasses.replace(d, shafts=shafts))
+    for c in r.checks:
+        assert not math.isnan(c.value) and not math.isnan(c.margin)
+    case = {c.component: c.value for c in r.cases[0].checks if c.kind == "bearing"}
+    duty = {c.component: c.value for c in r.duty if c.kind == "bearing" and c.unit == "life"}
+    assert duty.keys() == case.keys()
+    for k in case:
+        assert duty[k] == pytest.approx(case[k], rel=1e-12)

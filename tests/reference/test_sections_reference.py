@@ -209,17 +209,16 @@ def test_min_diameter_matches_sympy(criterion):
     assert len(roots) == 1, roots
     ref = sp.lambdify((N, a_, b_, SE, SUT, SY), sp.cbrt(roots[0]), "math")
     rng = np.random.default_rng(11)
-    for _ in range(12):
-        kf, kfs = rng.uniform(1.0, 3.0, 2)
-        ma, tm = rng.uniform(10.0, 5000.0, 2)
-        sut = rng.uniform(500e6, 1500e6)
-        se, sy = 0.3 * sut, 0.8 * sut
-        n_t = rng.uniform(1.2, 4.0)
-        a_v = kf * 32.0 * ma / math.pi                       # Kf 32 M_a / pi
-        b_v = math.sqrt(3.0) * kfs * 16.0 * tm / math.pi     # sqrt(3) Kfs 16 T_m / pi
-        want = float(ref(n_t, a_v, b_v, se, sut, sy))
-        got = float(s.min_shaft_diameter(n_t, ma, tm, kf, kfs, se, sut, sy, criterion))
-        assert got == pytest.approx(want, rel=1e-12)
+    kf, kfs = rng.uniform(1.0, 3.0, (2, 12))
+    ma, tm = rng.uniform(10.0, 5000.0, (2, 12))
+    sut = rng.uniform(500e6, 1500e6, 12)
+    se, sy = 0.3 * sut, 0.8 * sut
+    n_t = rng.uniform(1.2, 4.0, 12)
+    a_v = kf * 32.0 * ma / math.pi                       # Kf 32 M_a / pi
+    b_v = math.sqrt(3.0) * kfs * 16.0 * tm / math.pi     # sqrt(3) Kfs 16 T_m / pi
+    want = [float(ref(*row)) for row in zip(n_t, a_v, b_v, se, sut, sy)]
+    got = s.min_shaft_diameter(n_t, ma, tm, kf, kfs, se, sut, sy, criterion)      # one broadcast call
+    np.testing.assert_allclose(got, want, rtol=1e-12)
 
 
 def test_goodman_diameter_eq_7_8():

@@ -198,10 +198,24 @@ def test_margins_section_renders_rows():
 
 
 def test_ratings_render_when_given(result):
-    ratings_mod = pytest.importorskip("loadscope.kernel.ratings")       # lands with the ratings work
-    ratings = ratings_mod.rate(result.drive)
+    from loadscope.kernel.ratings import rate
+    from loadscope.report import case_names
+
+    ratings = rate(result.drive)
     p = parse(to_html(result, ratings=ratings))
-    assert any(k.startswith("margins-") for k in p.tables)
+    for name in case_names(ratings):
+        assert "margins-" + "".join(ch if ch.isalnum() else "-" for ch in name) in p.tables
+    ids = {a.get("id") for _, a in p.tags}
+    anchors = [a["href"][1:] for t, a in p.tags if t == "a"]
+    assert "load-cases" in anchors and set(anchors) <= ids          # every contents entry lands somewhere
+    # Every bearing reaction of every load case, equal to the kernel's for that case.
+    rows = p.tables["table-case-reactions"][1:]
+    expected = [(cr.case.name, sr.id, sid, rg) for cr in ratings.cases for sr in cr.result.shafts
+                for sid, rg in zip(sr.solution.support_ids, sr.solution.reactions_global)]
+    assert len(rows) == len(expected) and len(ratings.cases) >= 2
+    for row, (case, shaft, support, rg) in zip(rows, expected):
+        assert [c for c, _ in row[:3]] == [case, shaft, support]
+        np.testing.assert_allclose([float(v) for _, v in row[3:6]], rg, rtol=1e-12, atol=1e-9)
     assert "Rating methods used in the margins" in " ".join(p.text)
     text = to_html(result, ratings=ratings)
     listed = [html.unescape(m) for m in re.findall(r"<li>([^<]*)</li>", text[text.index("Rating methods used"):])]
