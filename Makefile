@@ -30,6 +30,7 @@ test: lint
 
 bench: venv
 	$(BIN)/python bench/bench_solve.py
+	$(BIN)/python bench/bench_widgets.py
 
 clean:
 	rm -rf $(VENV) build *.egg-info .pytest_cache .mypy_cache .ruff_cache

@@ -1,6 +1,8 @@
 """``loadscope`` on the command line.
 
-    loadscope solve FILE [--format json|csv|table] [--units si|us] [--out PATH]
+    loadscope solve FILE [--format json|csv|table|html] [--units si|us] [--out PATH]
+        (the loads of the drive, then the margins of every rated component
+        per load case and over the duty cycle)
     loadscope demo [--write FILE]
     loadscope schema
     loadscope serve [--port N] [--snapshot FILE] [--no-browser] [--pool N] [--base-url /]
@@ -27,7 +29,8 @@ def _parser() -> argparse.ArgumentParser:
     sub = p.add_subparsers(dest="command", required=True)
     s = sub.add_parser("solve", help="solve a drive snapshot and print its loads")
     s.add_argument("file", help="drive snapshot (JSON); '-' reads standard input")
-    s.add_argument("--format", choices=("json", "csv", "table"), default="table")
+    s.add_argument("--format", choices=("json", "csv", "table", "html"), default="table",
+                   help="html: one self-contained design-load report (needs plotly)")
     s.add_argument("--units", choices=("si", "us"), default="si")
     s.add_argument("--out", help="write to this file instead of standard output")
     d = sub.add_parser("demo", help="solve the built-in demo drive, or write its snapshot")
@@ -53,14 +56,22 @@ def _emit(text: str, out: str | None) -> None:
 
 def _solve_and_format(drive, fmt: str, units: str) -> str:
     from . import report
+    from .kernel.ratings import rate
     from .kernel.solve import solve
 
     result = solve(drive)
+    ratings = rate(drive)
+    if fmt == "html":
+        from .report.html import to_html
+
+        return to_html(result, units, ratings)
     if fmt == "json":
-        return report.to_json(result, units) + "\n"
+        doc = report.result_to_dict(result, units)
+        doc["ratings"] = report.ratings_to_dict(ratings, units, loads=True)
+        return json.dumps(doc, indent=2) + "\n"
     if fmt == "csv":
-        return report.to_csv(result, units)
-    return report.to_text(result, units)
+        return report.loads_and_margins_csv(result, ratings, units)
+    return report.to_text(result, units) + "\n" + report.margins_text(ratings, units)
 
 
 def main(argv: list[str] | None = None) -> int:
@@ -94,6 +105,9 @@ def main(argv: list[str] | None = None) -> int:
             _emit(_solve_and_format(drive, args.format, args.units), args.out)
     except InputError as exc:
         print(f"loadscope: input error: {exc}", file=sys.stderr)
+        return EXIT_INPUT
+    except ImportError as exc:  # an optional package a format needs (html: plotly)
+        print(f"loadscope: {exc}", file=sys.stderr)
         return EXIT_INPUT
     except OSError as exc:
         print(f"loadscope: {exc.strerror or exc}: {exc.filename or ''}".rstrip(": "), file=sys.stderr)

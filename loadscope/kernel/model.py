@@ -19,6 +19,7 @@ from typing import Literal
 
 from ..errors import InputError
 from . import checks
+from .ratingdata import Bearing, BearingPair, Fastener, Feature, LoadCase, Material, StiffnessLimits, check_cases
 
 Vec3 = tuple[float, float, float]
 GearKind = Literal["spur", "helical", "bevel"]
@@ -68,11 +69,13 @@ class Support:
     """A bearing seat at axial position ``at`` [m]. It always holds the shaft
     radially (a simple support: no moment). ``axial`` says which axial load it
     takes: ``locating`` both ways, ``floating`` none, ``positive`` only by
-    pushing the shaft toward +axis, ``negative`` only toward -axis."""
+    pushing the shaft toward +axis, ``negative`` only toward -axis.
+    ``bearing`` (optional) is the rolling bearing to rate."""
 
     id: str
     at: float
     axial: AxialMode = "floating"
+    bearing: Bearing | None = None
     path: str = field(default="", compare=False)
 
     def __post_init__(self) -> None:
@@ -210,7 +213,9 @@ class PointLoad:
 @dataclass(frozen=True)
 class Shaft:
     """A stepped shaft. ``sections`` run from axial position 0 along the axis;
-    ``E`` and ``G`` are the elastic and shear moduli [Pa]."""
+    ``E`` and ``G`` are the elastic and shear moduli [Pa]. Rating data
+    (optional): ``material``, notch ``features``, a bearing ``pair`` and the
+    ``alternating_torque`` share of the torque (0..1) for fatigue."""
 
     id: str
     sections: tuple[Section, ...]
@@ -223,6 +228,10 @@ class Shaft:
     loads: tuple[PointLoad, ...] = ()
     E: float = 206e9
     G: float = 79.3e9
+    material: Material | None = None
+    features: tuple[Feature, ...] = ()
+    pair: BearingPair | None = None
+    alternating_torque: float = 0.0
     path: str = field(default="", compare=False)
 
     def __post_init__(self) -> None:
@@ -248,6 +257,29 @@ class Shaft:
         if dup:
             raise InputError(p, f"element ids must be unique on a shaft, repeated: {', '.join(dup)}",
                              "unique ids")
+        self._check_rating_data(p, length)
+
+    def _check_rating_data(self, p: str, length: float) -> None:
+        checks.within(self.alternating_torque, 0.0, 1.0, f"{p}.alternating_torque")
+        names = [f.id for f in self.features]
+        for i, f in enumerate(self.features):
+            where = f.path or f"{p}.features[{i}]"
+            if not -1e-12 <= f.at <= length + 1e-12:
+                raise InputError(f"{where}.at", f"lies off the shaft, at {f.at:.6g} m", f"0 to {length:.6g} m")
+            if names.count(f.id) > 1:
+                raise InputError(f"{where}.id", f"feature id {f.id!r} is repeated", "unique feature ids")
+        if self.pair is not None:
+            where = self.pair.path or f"{p}.pair"
+            sup = {s.id: s for s in self.supports}
+            for j, sid in enumerate(self.pair.supports):
+                if sid not in sup:
+                    raise InputError(f"{where}.supports[{j}]", f"no support {sid!r} on this shaft",
+                                     ", ".join(sup) or "add supports")
+                b = sup[sid].bearing
+                if b is None or b.type not in ("angular_contact", "tapered_roller"):
+                    raise InputError(f"{where}.supports[{j}]", f"support {sid!r} needs an angular-contact or "
+                                     "tapered-roller bearing to be paired",
+                                     "bearing type angular_contact or tapered_roller")
 
     @property
     def length(self) -> float:
@@ -342,6 +374,7 @@ class Housing:
     bolt_method: BoltMethod = "elastic"
     tipping_point: Vec3 | None = None
     tipping_direction: Vec3 | None = None
+    fastener: Fastener | None = None
     path: str = field(default="housing", compare=False)
 
     def __post_init__(self) -> None:
@@ -366,7 +399,10 @@ class Housing:
 class Drive:
     """A whole drive: shafts joined by meshes, one input port (with its signed
     ``speed`` [rad/s] about the input shaft axis), one or more output ports,
-    and optionally the housing and its bolts."""
+    and optionally the housing and its bolts. Rating data (optional, see
+    :mod:`loadscope.kernel.ratingdata`): ``cases`` the load cases (none: one
+    nominal case from the drive's own power and speed), ``limits`` the
+    allowable deflections and slopes."""
 
     shafts: tuple[Shaft, ...]
     meshes: tuple[Mesh, ...]
@@ -375,6 +411,8 @@ class Drive:
     speed: float
     housing: Housing | None = None
     name: str = ""
+    cases: tuple[LoadCase, ...] = ()
+    limits: StiffnessLimits = field(default_factory=StiffnessLimits)
 
     def __post_init__(self) -> None:
         checks.finite(self.speed, "input.speed", "rad/s")
@@ -391,6 +429,7 @@ class Drive:
         if len(given) != 1:
             raise InputError("input", f"power or torque must be given at exactly one port, found {len(given)}",
                              "exactly one of input / outputs[*] with power or torque")
+        check_cases(self.cases)
 
     def shaft(self, ident: str) -> Shaft:
         """The shaft with this id."""

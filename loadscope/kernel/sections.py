@@ -349,7 +349,9 @@ def temperature_factor(temperature: ArrayLike, path: str = "") -> FloatArray:
     kd = 0.975 + 0.432e-3 T_F - 0.115e-5 T_F^2 + 0.104e-8 T_F^3
     - 0.595e-12 T_F^4, T_F in degF, a fit for steels valid for
     70 <= T_F <= 1000 degF (from memory). From 20 degC (68 degF) to 70 degF
-    the value at 70 degF (0.99995) is used.
+    kd = 1, the room-temperature row of Table 6-4 (ST/SRT = 1.000, from
+    memory) that the fit approximates (it gives 0.99995 at 70 degF), so a
+    section at room temperature has Se = ka kb kc ke kf Se' exactly.
 
     Parameters
     ----------
@@ -360,16 +362,16 @@ def temperature_factor(temperature: ArrayLike, path: str = "") -> FloatArray:
 
     Examples
     --------
-    >>> round(float(temperature_factor(293.15)), 4)
-    0.9999
+    >>> float(temperature_factor(293.15))
+    1.0
     >>> round(float(temperature_factor((550 - 32) / 1.8 + 273.15)), 4)
     0.9833
     """
     t = ac.within(temperature, *TEMPERATURE_RANGE, join_path(path, "temperature"), "K",
                   note="20 degC to 1000 degF; Shigley 9th ed. Eq. 6-27")
-    tf = np.maximum((t - 273.15) * 1.8 + 32.0, 70.0)
+    tf = (t - 273.15) * 1.8 + 32.0
     kd = 0.975 + tf * (0.432e-3 + tf * (-0.115e-5 + tf * (0.104e-8 + tf * -0.595e-12)))
-    return ac.scalar_or_array(kd)
+    return ac.scalar_or_array(np.where(tf <= 70.0, 1.0, kd))
 
 
 def reliability_factor(reliability: ArrayLike, path: str = "") -> FloatArray:

@@ -141,33 +141,38 @@ def to_csv(result: DriveResult, units: str = "si") -> str:
     return buf.getvalue()
 
 
+def table_rows(result: DriveResult, units: str = "si") -> dict[str, tuple[list[str], list[list[Any]]]]:
+    """The load tables as ``{name: (column names, rows of plain values)}``:
+    ``shafts``, ``reactions``, ``teeth`` and, with a housing, ``bolts``
+    (what :func:`tables` turns into DataFrames; cheap enough for a widget
+    to call on every slider move)."""
+    d = result_to_dict(result, units)
+    u = d["units"]
+    f, m = u["force"], u["moment"]
+    out = {
+        "shafts": (["shaft", f"speed [{u['speed']}]", f"torque [{m}]", f"power [{u['power']}]",
+                    f"max bending [{m}]", f"max deflection [{u['deflection']}]"],
+                   [[s["id"], s["speed"], s["torque"], s["power"], s["max_bending"]["moment"],
+                     s["max_deflection"]["deflection"]] for s in d["shafts"]]),
+        "reactions": (["shaft", "support", f"Rx [{f}]", f"Ry [{f}]", f"Rz [{f}]", f"radial [{f}]", f"axial [{f}]"],
+                      [[s["id"], r["support"], *r["force"], r["radial"], r["axial"]]
+                       for s in d["shafts"] for r in s["reactions"]]),
+        "teeth": (["mesh", "gear", "role", f"Fx [{f}]", f"Fy [{f}]", f"Fz [{f}]", f"tangential [{f}]",
+                   f"radial [{f}]", f"axial [{f}]"],
+                  [[mm["id"], t["gear"], t["role"], *t["force"], t["tangential"], t["radial"], t["axial"]]
+                   for mm in d["meshes"] for t in mm["teeth"]]),
+    }
+    if "housing" in d:
+        out["bolts"] = (["bolt", f"Fx [{f}]", f"Fy [{f}]", f"Fz [{f}]", f"shear [{f}]", f"tension [{f}]"],
+                        [[b["id"], *b["force"], b["shear"], b["tension"]] for b in d["housing"]["bolts"]])
+    return out
+
+
 def tables(result: DriveResult, units: str = "si") -> dict[str, Any]:
     """pandas DataFrames: ``shafts``, ``reactions``, ``teeth``, ``bolts``."""
     import pandas as pd
 
-    d = result_to_dict(result, units)
-    u = d["units"]
-    f, m = u["force"], u["moment"]
-    shafts = pd.DataFrame([{"shaft": s["id"], f"speed [{u['speed']}]": s["speed"],
-                            f"torque [{m}]": s["torque"], f"power [{u['power']}]": s["power"],
-                            f"max bending [{m}]": s["max_bending"]["moment"],
-                            f"max deflection [{u['deflection']}]": s["max_deflection"]["deflection"]}
-                           for s in d["shafts"]])
-    reactions = pd.DataFrame([{"shaft": s["id"], "support": r["support"], f"Rx [{f}]": r["force"][0],
-                               f"Ry [{f}]": r["force"][1], f"Rz [{f}]": r["force"][2],
-                               f"radial [{f}]": r["radial"], f"axial [{f}]": r["axial"]}
-                              for s in d["shafts"] for r in s["reactions"]])
-    teeth = pd.DataFrame([{"mesh": mm["id"], "gear": t["gear"], "role": t["role"], f"Fx [{f}]": t["force"][0],
-                           f"Fy [{f}]": t["force"][1], f"Fz [{f}]": t["force"][2],
-                           f"tangential [{f}]": t["tangential"], f"radial [{f}]": t["radial"],
-                           f"axial [{f}]": t["axial"]}
-                          for mm in d["meshes"] for t in mm["teeth"]])
-    out = {"shafts": shafts, "reactions": reactions, "teeth": teeth}
-    if "housing" in d:
-        out["bolts"] = pd.DataFrame([{"bolt": b["id"], f"Fx [{f}]": b["force"][0], f"Fy [{f}]": b["force"][1],
-                                      f"Fz [{f}]": b["force"][2], f"shear [{f}]": b["shear"],
-                                      f"tension [{f}]": b["tension"]} for b in d["housing"]["bolts"]])
-    return out
+    return {name: pd.DataFrame(body, columns=cols) for name, (cols, body) in table_rows(result, units).items()}
 
 
 def _fmt_table(headers: list[str], body: list[list[Any]]) -> str:

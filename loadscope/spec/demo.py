@@ -18,6 +18,23 @@ bulk-material screw conveyor (every number made up, chosen to be plausible).
   plane y = 0, shaft axes 180 mm above it; bearing walls at x = 75 mm and
   x = 210 mm.
 
+Rating data (invented, catalogue-like, not any maker's):
+
+* Bearings: input shaft two deep-groove ball bearings of 35 mm bore
+  (C 25.5 kN, C0 15.3 kN, f0 13.8); intermediate shaft a pair of tapered
+  roller bearings of 35 mm bore back to back (C 54 kN, C0 60 kN, Y 1.6,
+  e 0.37); output shaft two heavy-series deep-groove ball bearings of 50 mm
+  bore (C 62 kN, C0 38 kN, f0 13.2). Target 20 000 h at 90 % reliability (L10).
+* Shafts: input and intermediate quenched-and-tempered alloy steel
+  (Sut 900 MPa, Sy 650 MPa), all three machined, DE-Goodman, required factor 1.5. Keyseats at the
+  coupling, the wheel g2, the wheel g4 and the sprocket; bearing shoulders;
+  a retaining-ring groove at the end of the output shaft. The chain makes
+  the output torque pulsate: 10 % of it alternates.
+* Bolts: M16 property class 8.8, preloaded to 65 kN, joint constant 0.25,
+  thread in the shear plane.
+* Load cases: rated 5.5 kW at 1460 rpm (70 % of the time), part load 3 kW at
+  980 rpm on a frequency inverter (25 %), and a jam at 7.5 kW (5 %).
+
 Shafts run along +x and are placed by the (y, z) of their axes: input at
 z = 0, intermediate at z = 117 mm, output at z = 255 mm. The snapshot is
 written as a user would write it (mm, deg, rpm, kW, kg), not in canonical
@@ -26,11 +43,18 @@ form.
 
 from __future__ import annotations
 
-import copy
+import json
+
+_TARGET = {"target_life": "20000 h", "reliability": 0.9}
+_DEEP_GROOVE_35 = {"type": "deep_groove", "C": "25.5 kN", "C0": "15.3 kN", "f0": 13.8, **_TARGET}
+_DEEP_GROOVE_50 = {"type": "deep_groove", "C": "62 kN", "C0": "38 kN", "f0": 13.2, **_TARGET}
+_TAPERED_35 = {"type": "tapered_roller", "C": "54 kN", "C0": "60 kN", "y": 1.6, "e": 0.37, **_TARGET}
+_ALLOY_STEEL = {"Sut": "900 MPa", "Sy": "650 MPa", "finish": "machined", "temperature": "60 degC",
+                "reliability": 0.99, "criterion": "goodman", "required_factor": 1.5}
 
 _DEMO = {
     "format": "loadscope.drive",
-    "version": 1,
+    "version": 2,
     "name": "SR-17 screw-conveyor reducer (invented demo)",
     "shafts": [
         {
@@ -45,14 +69,22 @@ _DEMO = {
                 {"length": "20 mm", "diameter": "35 mm"},
             ],
             "supports": [
-                {"id": "A", "at": "75 mm", "axial": "locating"},
-                {"id": "B", "at": "210 mm", "axial": "floating"},
+                {"id": "A", "at": "75 mm", "axial": "locating", "bearing": _DEEP_GROOVE_35},
+                {"id": "B", "at": "210 mm", "axial": "floating", "bearing": _DEEP_GROOVE_35},
             ],
             "gears": [
                 {"id": "p1", "at": "110 mm", "kind": "helical", "teeth": 21, "pitch_radius": "21.743 mm",
                  "pressure_angle": "20 deg", "helix_angle": "15.03 deg", "hand": "right", "mass": "0.6 kg"},
             ],
             "couplings": [{"id": "coupling", "at": "25 mm", "mass": "1.8 kg"}],
+            "material": _ALLOY_STEEL,
+            "features": [
+                {"id": "coupling keyseat", "kind": "keyseat", "at": "25 mm", "Kt": 2.14, "Kts": 3.0,
+                 "radius": "0.6 mm"},
+                {"id": "seal shoulder", "kind": "shoulder", "at": "50 mm", "Kt": 1.9, "Kts": 1.5, "radius": "1 mm"},
+                {"id": "bearing shoulder A", "kind": "shoulder", "at": "85 mm", "Kt": 2.1, "Kts": 1.7,
+                 "radius": "0.8 mm"},
+            ],
         },
         {
             "id": "intermediate",
@@ -63,8 +95,8 @@ _DEMO = {
                 {"length": "25 mm", "diameter": "35 mm"},
             ],
             "supports": [
-                {"id": "C", "at": "15 mm", "axial": "locating"},
-                {"id": "D", "at": "150 mm", "axial": "floating"},
+                {"id": "C", "at": "15 mm", "axial": "locating", "bearing": _TAPERED_35},
+                {"id": "D", "at": "150 mm", "axial": "floating", "bearing": _TAPERED_35},
             ],
             "gears": [
                 {"id": "g2", "at": "50 mm", "kind": "helical", "teeth": 92, "pitch_radius": "95.257 mm",
@@ -72,6 +104,13 @@ _DEMO = {
                 {"id": "p3", "at": "110 mm", "kind": "spur", "teeth": 19, "pitch_radius": "28.5 mm",
                  "pressure_angle": "20 deg", "mass": "1.6 kg"},
             ],
+            "material": _ALLOY_STEEL,
+            "features": [
+                {"id": "g2 keyseat", "kind": "keyseat", "at": "50 mm", "Kt": 2.14, "Kts": 3.0, "radius": "0.9 mm"},
+                {"id": "shoulder C", "kind": "shoulder", "at": "25 mm", "Kt": 2.1, "Kts": 1.7, "radius": "1 mm"},
+                {"id": "shoulder D", "kind": "shoulder", "at": "135 mm", "Kt": 2.1, "Kts": 1.7, "radius": "1 mm"},
+            ],
+            "pair": {"supports": ["C", "D"], "arrangement": "back_to_back"},
         },
         {
             "id": "output",
@@ -84,8 +123,8 @@ _DEMO = {
                 {"length": "70 mm", "diameter": "45 mm"},
             ],
             "supports": [
-                {"id": "E", "at": "15 mm", "axial": "locating"},
-                {"id": "F", "at": "150 mm", "axial": "floating"},
+                {"id": "E", "at": "15 mm", "axial": "locating", "bearing": _DEEP_GROOVE_50},
+                {"id": "F", "at": "150 mm", "axial": "floating", "bearing": _DEEP_GROOVE_50},
             ],
             "gears": [
                 {"id": "g4", "at": "110 mm", "kind": "spur", "teeth": 73, "pitch_radius": "109.5 mm",
@@ -95,6 +134,14 @@ _DEMO = {
                 {"id": "sprocket", "at": "215 mm", "pitch_diameter": "138.23 mm",
                  "strand_angles": ["114 deg", "126 deg"], "wrap": 1, "tension_ratio": "inf", "mass": "2.9 kg"},
             ],
+            "material": {"Sut": "900 MPa", "Sy": "650 MPa", "finish": "machined", "temperature": "60 degC",
+                         "reliability": 0.99, "criterion": "goodman", "required_factor": 1.5},
+            "features": [
+                {"id": "g4 keyseat", "kind": "keyseat", "at": "110 mm", "Kt": 2.14, "Kts": 3.0, "radius": "1.2 mm"},
+                {"id": "sprocket keyseat", "kind": "keyseat", "at": "215 mm", "Kf": 2.2, "Kfs": 2.6},
+                {"id": "ring groove", "kind": "groove", "at": "245 mm", "Kt": 5.0, "Kts": 3.0, "radius": "0.2 mm"},
+            ],
+            "alternating_torque": 0.1,
         },
     ],
     "meshes": [
@@ -115,7 +162,14 @@ _DEMO = {
         "mass": "68 kg",
         "center_of_mass": ["150 mm", "150 mm", "140 mm"],
         "bolt_method": "elastic",
+        "fastener": {"diameter": "16 mm", "grade": "8.8", "standard": "iso_898_1", "preload": "65 kN",
+                     "shear_plane": "thread", "stiffness_fraction": 0.25},
     },
+    "cases": [
+        {"name": "rated", "share": 0.70, "power": "5.5 kW", "speed": "1460 rpm"},
+        {"name": "part load", "share": 0.25, "power": "3 kW", "speed": "980 rpm"},
+        {"name": "jam", "share": 0.05, "power": "7.5 kW", "speed": "1460 rpm"},
+    ],
 }
 
 
@@ -123,4 +177,6 @@ def demo_snapshot() -> dict:
     """The demo drive's snapshot (a fresh dict each call; user units, not
     canonical: pass it through :func:`~loadscope.spec.dump_snapshot` for the
     canonical text)."""
-    return copy.deepcopy(_DEMO)
+    # Through JSON, not deepcopy: the bearing and material dicts are shared in
+    # _DEMO, and a caller who edits one bearing must not edit its twin.
+    return json.loads(json.dumps(_DEMO))

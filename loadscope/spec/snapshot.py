@@ -24,115 +24,52 @@ format can hold, and ``dump(load(dump(x))) == dump(x)`` textually.
 from __future__ import annotations
 
 import copy
-import dataclasses
 import functools
 import json
-import math
 import typing
 from pathlib import Path
-from typing import Annotated, Any, Literal
+from typing import Any, Literal
 
-from pydantic import (
-    BaseModel,
-    BeforeValidator,
-    ConfigDict,
-    Field,
-    PlainSerializer,
-    StringConstraints,
-    ValidationError,
-    WithJsonSchema,
-)
+from pydantic import BaseModel, Field, ValidationError
 
 from ..errors import InputError
 from ..kernel.model import Bolt, Coupling, Drive, Gear, Housing, Mesh, PointLoad, Port, Pulley, Section, Shaft, Support
-from .units import DIMENSIONS, STANDARD_GRAVITY, format_quantity, parse_quantity
+from . import ratingspec as rs
+from .fields import (
+    _AT,
+    _ID,
+    _MASS,
+    _WEIGHT,
+    _ZERO3,
+    Angle,
+    Direction,
+    Force,
+    ForceVec,
+    Id,
+    Length,
+    LengthVec,
+    Mass,
+    Moment,
+    MomentVec,
+    Number,
+    Power,
+    Pressure,
+    Ratio,
+    Speed,
+    _kernel_default,
+    _q,
+    _Spec,
+)
+from .ratingspec import BearingSpec, CaseSpec, FastenerSpec, FeatureSpec, LimitsSpec, MaterialSpec, PairSpec
+from .units import DIMENSIONS, STANDARD_GRAVITY
 
 FORMAT = "loadscope.drive"
-VERSION = 1
-SUPPORTED_VERSIONS = (1,)
-SCHEMA_ID = "urn:loadscope:schema:drive-snapshot:1"
+#: The version written. Version 2 adds the optional rating data; a version-1
+#: file (which has none) reads unchanged (see docs/snapshot.md, Versioning).
+VERSION = 2
+SUPPORTED_VERSIONS = (1, 2)
+SCHEMA_ID = "urn:loadscope:schema:drive-snapshot:2"
 SCHEMA_FILE = Path(__file__).with_name("schema.json")
-
-
-# --- value types ------------------------------------------------------------------------------------------------
-
-def _quantity_type(dimension: str) -> Any:
-    dim = DIMENSIONS[dimension]
-
-    def read(value: Any) -> float:
-        return parse_quantity(value, dimension, "")
-
-    def write(value: Any) -> str:
-        # A default still in its text form (schema generation) stays as written.
-        return value if isinstance(value, str) else format_quantity(value, dimension)
-
-    example = dim.example.split(" or ")[0].strip("'")
-    return Annotated[float, BeforeValidator(read), PlainSerializer(write, return_type=str),
-                     WithJsonSchema({"type": "string", "examples": [example], "x-dimension": dimension,
-                                     "x-si-unit": dim.si})]
-
-
-def _read_number(value: Any) -> float:
-    return parse_quantity(value, "dimensionless", "")
-
-
-def _read_ratio(value: Any) -> float:
-    if isinstance(value, str) and value.strip().lower() in ("inf", "infinity"):
-        return math.inf
-    if isinstance(value, float) and value == math.inf:
-        return value
-    return parse_quantity(value, "dimensionless", "")
-
-
-def _write_ratio(value: Any) -> float | str:
-    if isinstance(value, str):
-        return value
-    return "inf" if value == math.inf else float(value)
-
-
-Length = _quantity_type("length")
-Force = _quantity_type("force")
-Moment = _quantity_type("moment")
-Power = _quantity_type("power")
-Speed = _quantity_type("speed")
-Angle = _quantity_type("angle")
-Pressure = _quantity_type("pressure")
-Mass = _quantity_type("mass")
-Number = Annotated[float, BeforeValidator(_read_number), PlainSerializer(float, return_type=float),
-                   WithJsonSchema({"type": "number"})]
-Ratio = Annotated[float, BeforeValidator(_read_ratio), PlainSerializer(_write_ratio),
-                  WithJsonSchema({"anyOf": [{"type": "number", "exclusiveMinimum": 1}, {"const": "inf"}]})]
-Id = Annotated[str, StringConstraints(min_length=1)]
-LengthVec = tuple[Length, Length, Length]
-ForceVec = tuple[Force, Force, Force]
-MomentVec = tuple[Moment, Moment, Moment]
-Direction = tuple[Number, Number, Number]
-
-
-def _kernel_default(cls: type, name: str) -> Any:
-    return next(f.default for f in dataclasses.fields(cls) if f.name == name)
-
-
-def _q(dimension: str, description: str, default: Any = ..., vector: bool = False) -> Any:
-    """A Field for a quantity; a float default is written in canonical text."""
-    dim = DIMENSIONS[dimension]
-    if isinstance(default, float):
-        default = format_quantity(default, dimension)
-    elif isinstance(default, tuple):
-        default = tuple(format_quantity(float(c), dimension) for c in default)
-    what = f"[x, y, z], each {dim.article}" if vector else dim.article
-    return Field(default, description=f"{description}; {what}, e.g. {dim.example}")
-
-
-_ZERO3 = (0.0, 0.0, 0.0)
-_ID = Field(description="identifier, unique among the elements of its shaft")
-_AT = "axial position from the shaft origin along its axis, 0 to the shaft length"
-_WEIGHT = "weight, acting in -y (give weight or mass, not both; default 0)"
-_MASS = "mass, turned into a weight with g = 9.80665 m/s^2 (give weight or mass, not both)"
-
-
-class _Spec(BaseModel):
-    model_config = ConfigDict(extra="forbid", validate_default=True)
 
 
 class SectionSpec(_Spec):
@@ -151,6 +88,7 @@ class SupportSpec(_Spec):
     axial: Literal["locating", "floating", "positive", "negative"] = Field(
         "floating", description="axial load taken: locating both ways, floating none, positive only toward +axis, "
                                 "negative only toward -axis")
+    bearing: BearingSpec | None = Field(None, description="the rolling bearing to rate (version 2)")
 
 
 class GearSpec(_Spec):
@@ -229,6 +167,14 @@ class ShaftSpec(_Spec):
     loads: list[LoadSpec] = Field(default_factory=list, description="extra point loads")
     E: Pressure = _q("pressure", "elastic modulus", _kernel_default(Shaft, "E"))
     G: Pressure = _q("pressure", "shear modulus", _kernel_default(Shaft, "G"))
+    material: MaterialSpec | None = Field(None, description="material and fatigue method, to rate the sections "
+                                                            "(version 2)")
+    features: list[FeatureSpec] | None = Field(None, description="notches: shoulders, grooves, keyseats "
+                                                                 "(version 2)")
+    pair: PairSpec | None = Field(None, description="two paired angular-contact or tapered-roller bearings "
+                                                    "(version 2)")
+    alternating_torque: Number | None = Field(None, description="alternating share of the torque for fatigue, "
+                                                                "0 to 1; 0 when omitted (version 2)")
 
 
 class MeshSpec(_Spec):
@@ -298,13 +244,16 @@ class HousingSpec(_Spec):
                                "centroid) or tipping (about tipping_edge)")
     tipping_edge: TippingEdgeSpec | None = Field(None, description="the tipping edge; needed by bolt_method "
                                                                    "tipping")
+    fastener: FastenerSpec | None = Field(None, description="size, class and preload of the bolts, to rate them "
+                                                            "(version 2)")
 
 
 class Snapshot(_Spec):
     """A whole gear drive, in SI-convertible units."""
 
     format: Literal["loadscope.drive"] = Field(description="always 'loadscope.drive'")
-    version: Literal[1] = Field(description="format version; this reader knows 1")
+    version: Literal[1, 2] = Field(description="format version; this reader knows 1 and 2 (2 adds the rating "
+                                               "data)")
     name: str = Field("", description="a name for the drive")
     shafts: list[ShaftSpec] = Field(description="the shafts, in any order")
     meshes: list[MeshSpec] = Field(default_factory=list, description="the gear meshes; they must form a tree")
@@ -312,6 +261,10 @@ class Snapshot(_Spec):
     outputs: list[OutputSpec] = Field(description="the output ports; at least one")
     housing: HousingSpec | None = Field(None, description="the housing and its bolts; omit to stop at the "
                                                           "bearing reactions")
+    cases: list[CaseSpec] | None = Field(None, description="load cases; one nominal case from input and outputs "
+                                                           "when omitted (version 2)")
+    limits: LimitsSpec | None = Field(None, description="allowable deflections and slopes; the defaults when "
+                                                        "omitted (version 2)")
 
 
 # --- snapshot -> Drive ------------------------------------------------------------------------------------------
@@ -431,7 +384,9 @@ def _weight(spec: GearSpec | PulleySpec | CouplingSpec | HousingSpec, p: str) ->
 def _shaft(s: ShaftSpec, p: str) -> Shaft:
     sections = tuple(Section(x.length, x.diameter, x.bore, path=f"{p}.sections[{i}]")
                      for i, x in enumerate(s.sections))
-    supports = tuple(Support(x.id, x.at, x.axial, path=f"{p}.supports[{i}]") for i, x in enumerate(s.supports))
+    supports = tuple(Support(x.id, x.at, x.axial, None if x.bearing is None else
+                             rs.read_bearing(x.bearing, f"{p}.supports[{i}].bearing"), path=f"{p}.supports[{i}]")
+                     for i, x in enumerate(s.supports))
     gears = []
     for i, g in enumerate(s.gears):
         q = f"{p}.gears[{i}]"
@@ -446,8 +401,11 @@ def _shaft(s: ShaftSpec, p: str) -> Shaft:
                       for i, c in enumerate(s.couplings))
     loads = tuple(PointLoad(x.id, x.at, x.force, x.moment, x.offset, path=f"{p}.loads[{i}]")
                   for i, x in enumerate(s.loads))
+    material = None if s.material is None else rs.read_material(s.material, f"{p}.material")
+    features = tuple(rs.read_feature(f, f"{p}.features[{i}]") for i, f in enumerate(s.features or ()))
+    pair = None if s.pair is None else rs.read_pair(s.pair, f"{p}.pair")
     return Shaft(s.id, sections, supports, s.origin, s.axis, tuple(gears), tuple(pulleys), couplings, loads, s.E,
-                 s.G, path=p)
+                 s.G, material, features, pair, s.alternating_torque or 0.0, path=p)
 
 
 def _port(spec: InputSpec | OutputSpec, p: str, shafts: tuple[Shaft, ...]) -> Port:
@@ -466,8 +424,10 @@ def _housing(h: HousingSpec) -> Housing:
     p = "housing"
     bolts = tuple(Bolt(b.id, b.position, path=f"{p}.bolts[{i}]") for i, b in enumerate(h.bolts))
     edge = h.tipping_edge
+    fastener = None if h.fastener is None else rs.read_fastener(h.fastener, f"{p}.fastener")
     return Housing(bolts, h.plane_point, h.plane_normal, _weight(h, p), h.center_of_mass, h.bolt_method,
-                   edge.point if edge is not None else None, edge.direction if edge is not None else None, path=p)
+                   edge.point if edge is not None else None, edge.direction if edge is not None else None, fastener,
+                   path=p)
 
 
 def _build(snap: Snapshot) -> Drive:
@@ -489,7 +449,13 @@ def _build(snap: Snapshot) -> Drive:
     port_in = _port(snap.input, "input", shafts)
     outputs = tuple(_port(o, f"outputs[{j}]", shafts) for j, o in enumerate(snap.outputs))
     housing = _housing(snap.housing) if snap.housing is not None else None
-    return Drive(shafts, tuple(meshes), port_in, outputs, snap.input.speed, housing, snap.name)
+    cases = tuple(rs.read_case(c, f"cases[{i}]") for i, c in enumerate(snap.cases or ()))
+    drive = Drive(shafts, tuple(meshes), port_in, outputs, snap.input.speed, housing, snap.name, cases,
+                  rs.read_limits(snap.limits))
+    if snap.version == 1 and rs.has_rating_data(drive):
+        raise InputError("version", "rating data (bearings, materials, features, pairs, fasteners, cases, limits) "
+                         "needs snapshot version 2", "2")
+    return drive
 
 
 def _check_header(data: Any) -> None:
@@ -578,7 +544,9 @@ def _spec_shaft(s: Shaft) -> ShaftSpec:
         id=s.id, origin=_vec(s.origin), axis=_vec(s.axis),
         sections=[SectionSpec.model_construct(length=float(x.length), diameter=float(x.diameter),
                                               bore=float(x.bore)) for x in s.sections],
-        supports=[SupportSpec.model_construct(id=x.id, at=float(x.at), axial=x.axial) for x in s.supports],
+        supports=[SupportSpec.model_construct(id=x.id, at=float(x.at), axial=x.axial,
+                                              bearing=None if x.bearing is None else rs.write_bearing(x.bearing))
+                  for x in s.supports],
         gears=[GearSpec.model_construct(
             id=g.id, at=float(g.at), kind=g.kind, teeth=None if g.teeth is None else int(g.teeth),
             pitch_radius=float(g.pitch_radius), pitch_diameter=None, pressure_angle=float(g.pressure_angle),
@@ -593,7 +561,10 @@ def _spec_shaft(s: Shaft) -> ShaftSpec:
                    for c in s.couplings],
         loads=[LoadSpec.model_construct(id=x.id, at=float(x.at), force=_vec(x.force), moment=_vec(x.moment),
                                         offset=_vec(x.offset)) for x in s.loads],
-        E=float(s.E), G=float(s.G))
+        E=float(s.E), G=float(s.G), material=None if s.material is None else rs.write_material(s.material),
+        features=[rs.write_feature(f) for f in s.features] or None,
+        pair=None if s.pair is None else rs.write_pair(s.pair),
+        alternating_torque=float(s.alternating_torque) or None)
 
 
 def _opt(v: float | None) -> float | None:
@@ -614,7 +585,8 @@ def snapshot_from_drive(drive: Drive) -> dict:
         housing = HousingSpec.model_construct(
             bolts=[BoltSpec.model_construct(id=b.id, position=_vec(b.position)) for b in h.bolts],
             plane_point=_vec(h.plane_point), plane_normal=_vec(h.plane_normal), weight=float(h.weight), mass=None,
-            center_of_mass=_vec(h.center_of_mass), bolt_method=h.bolt_method, tipping_edge=edge)
+            center_of_mass=_vec(h.center_of_mass), bolt_method=h.bolt_method, tipping_edge=edge,
+            fastener=None if h.fastener is None else rs.write_fastener(h.fastener))
     i = drive.input
     snap = Snapshot.model_construct(
         format=FORMAT, version=VERSION, name=drive.name,
@@ -625,7 +597,7 @@ def snapshot_from_drive(drive: Drive) -> dict:
                                         power=_opt(i.power), torque=_opt(i.torque), share=float(i.share)),
         outputs=[OutputSpec.model_construct(shaft=o.shaft, element=o.element, power=_opt(o.power),
                                             torque=_opt(o.torque), share=float(o.share)) for o in drive.outputs],
-        housing=housing)
+        housing=housing, cases=[rs.write_case(c) for c in drive.cases] or None, limits=rs.write_limits(drive.limits))
     return snap.model_dump(mode="json", exclude_none=True)
 
 
@@ -688,9 +660,10 @@ def _schema() -> dict:
     return {
         "$schema": "https://json-schema.org/draft/2020-12/schema",
         "$id": SCHEMA_ID,
-        "title": "loadscope drive snapshot, version 1",
+        "title": "loadscope drive snapshot, version 2",
         "description": ("A whole gear drive for loadscope: shafts with their sections, bearings, gears, pulleys, "
-                        "couplings and loads; meshes; the input and output ports; the housing and its bolts. "
+                        "couplings and loads; meshes; the input and output ports; the housing and its bolts; "
+                        "optionally the rating data (bearings, materials, notches, fasteners, load cases). "
                         "Dimensioned values are strings of a number and a unit (e.g. '40 mm', '20 deg', "
                         "'1460 rpm'); see docs/snapshot.md."),
         **body,

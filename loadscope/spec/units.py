@@ -74,6 +74,9 @@ DIMENSIONS: dict[str, Dimension] = {d.name: d for d in (
     Dimension("pressure", "a pressure or elastic modulus", "Pa", "pascal", 0, ("GPa", "MPa"),
               "'206 GPa' or '30e6 psi'"),
     Dimension("mass", "a mass", "kg", "kilogram", 0, (), "'5.5 kg' or '12 lb'"),
+    # Bearing lives: the trade counts them in hours, so hours are this dimension's unit.
+    Dimension("duration", "a duration", "h", "hour", 0, (), "'20000 h'"),
+    Dimension("temperature", "a temperature", "K", "kelvin", 0, ("degC",), "'80 degC' or '176 degF'"),
     Dimension("dimensionless", "a plain number", "", "dimensionless", 0, (), "0.98"),
 )}
 
@@ -94,6 +97,13 @@ _KNOWN: dict[str, tuple[str, float]] = {
     "MPa": ("pressure", 1e6),
     "GPa": ("pressure", 1e9),
     "kg": ("mass", 1.0),
+    "h": ("duration", 1.0),
+}
+
+# Temperatures: an offset scale, read without pint's multiplicative factors.
+# unit -> (kelvin per unit, kelvin at 0 of the unit); degF: 5/9 K, 0 degF = 459.67 * 5/9 K.
+_TEMPERATURE_UNITS: dict[str, tuple[float, float]] = {
+    "K": (1.0, 0.0), "kelvin": (1.0, 0.0), "degC": (1.0, 273.15), "degF": (5.0 / 9.0, 459.67 * 5.0 / 9.0),
 }
 
 _NUMBER = re.compile(r"""
@@ -249,6 +259,8 @@ def parse_quantity(text: Any, dimension: str, path: str) -> float:
         unit = unit.strip()
         try:
             number = _read_number(m)
+            if dim.name == "temperature":
+                return _temperature(number, unit, text, path)
             if unit:
                 factor = _factor(unit, dim)
             elif dim.name == "dimensionless":
@@ -260,6 +272,17 @@ def parse_quantity(text: Any, dimension: str, path: str) -> float:
         value = number * factor
     if not math.isfinite(value):
         raise InputError(path, f"must be finite, got {_show(text)}", dim.accepted)
+    return value
+
+
+def _temperature(number: float, unit: str, text: str, path: str) -> float:
+    key = unit.replace(" ", "")
+    if key not in _TEMPERATURE_UNITS:
+        raise InputError(path, f"{_show(text)} needs a temperature unit", "K, degC or degF, e.g. '80 degC'")
+    scale, zero = _TEMPERATURE_UNITS[key]
+    value = number * scale + zero if zero else number * scale     # keeps -0.0 K bit-exact
+    if not math.isfinite(value):
+        raise InputError(path, f"must be finite, got {_show(text)}", "K, degC or degF, e.g. '80 degC'")
     return value
 
 
@@ -313,8 +336,8 @@ def format_quantity(value: float, dimension: str) -> str:
     if dim.name == "dimensionless":
         return _number_text(v)
     for unit in dim.preferred:
-        factor = _KNOWN[unit][1]
-        y = v / factor
+        factor, zero = _TEMPERATURE_UNITS[unit] if dim.name == "temperature" else (_KNOWN[unit][1], 0.0)
+        y = (v - zero) / factor
         if not math.isfinite(y):
             continue
         tried: set[str] = set()
@@ -323,6 +346,7 @@ def format_quantity(value: float, dimension: str) -> str:
             if text in tried or _significant(text) > _MAX_DIGITS:
                 continue
             tried.add(text)
-            if _same(float(text) * factor, v):
+            back = float(text) * factor + zero if zero else float(text) * factor
+            if _same(back, v):
                 return f"{text} {unit}"
     return f"{_number_text(v)} {dim.si}"

@@ -98,7 +98,8 @@ def _bar_traces(result: DriveResult, units: str, parts: str, cases: Mapping[str,
                 "type": "bar", "name": prefix + _PART_NAMES[key], "legendgroup": case or "reactions",
                 "x": list(cats), "y": y, "xaxis": xaxis, "yaxis": yaxis, "offsetgroup": f"{ci}:{key}",
                 "marker": {"color": PALETTE[key], "line": {"color": PALETTE["ink"], "width": 0.5},
-                           "pattern": {"shape": CASE_PATTERNS[ci % len(CASE_PATTERNS)], "fgcolor": PALETTE["page"]}},
+                           "pattern": {"shape": CASE_PATTERNS[ci % len(CASE_PATTERNS)], "fgcolor": PALETTE["page"],
+                                       "fillmode": "overlay"}},   # keep the part colour under the hatch
                 "hoverinfo": "text",
                 "hovertext": [f"{prefix}{c}<br>{_PART_NAMES[key]} {number(v)} {fu}" for c, v in zip(cats, y)],
             })

@@ -111,3 +111,54 @@ def test_mechanism_is_reported_in_words(demo_file, tmp_path):
     bad.write_text(json.dumps(doc))
     proc = run("solve", str(bad))
     assert proc.returncode == 2 and "mechanism" in proc.stderr and "Traceback" not in proc.stderr
+
+
+def test_solve_prints_the_margins_of_every_part_per_case(demo_file, capsys):
+    from loadscope.spec import load_snapshot
+
+    drive = load_snapshot(demo_file)
+    assert main(["solve", str(demo_file)]) == 0
+    text = capsys.readouterr().out
+    margins = text[text.index("Margins"):]
+    for case in ("rated", "part load", "jam"):
+        assert f"Load case '{case}'" in margins
+    duty = margins[margins.index("Duty cycle"):]
+    for s in drive.shafts:
+        for p in s.supports:
+            assert f"{s.id}/{p.id} " in duty
+        for f in s.features:
+            assert f"{s.id} at {f.id} " in duty
+    for b in drive.housing.bolts:
+        assert f"bolt {b.id} " in duty
+    assert "Palmgren-Miner" in duty and duty.rstrip().endswith("licensed practice govern.")
+
+
+def test_json_and_csv_carry_the_margins(demo_file, capsys, tmp_path):
+    assert main(["solve", str(demo_file), "--format", "json", "--units", "us"]) == 0
+    doc = json.loads(capsys.readouterr().out)
+    r = doc["ratings"]
+    assert "qualified engineer" in r["caution"]
+    assert [c["name"] for c in r["cases"]] == ["rated", "part load", "jam"]
+    assert all(m["method"] and m["status"] in ("pass", "watch", "fail") for c in r["cases"] for m in c["margins"])
+    # every load exists per case: the jam case (7.5 kW) loads the input shaft 7.5 / 5.5 times the rated one
+    rated, jam = (c["loads"]["shafts"][0]["torque"] for c in r["cases"][::2])
+    assert jam / rated == pytest.approx(7.5 / 5.5, rel=1e-12)
+    out = tmp_path / "m.csv"
+    assert main(["solve", str(demo_file), "--format", "csv", "--out", str(out)]) == 0
+    rows = list(csv.DictReader(io.StringIO(out.read_text())))
+    margins = [x for x in rows if x["group"] == "margin"]
+    assert {x["case"] for x in margins} == {"rated", "part load", "jam", "duty cycle"}
+    assert all(x["status"] and x["method"] and x["allowable"] for x in margins)
+    assert any(x["group"] == "reaction" for x in rows)
+    assert rows[-1]["group"] == "caution" and "qualified engineer" in rows[-1]["method"]
+
+
+def test_bad_rating_data_is_one_clear_line(demo_file, tmp_path):
+    doc = json.loads(demo_file.read_text())
+    doc["shafts"][2]["features"][0]["Kt"] = 0.8
+    bad = tmp_path / "kt.json"
+    bad.write_text(json.dumps(doc))
+    proc = run("solve", str(bad))
+    assert proc.returncode == 2 and "Traceback" not in proc.stderr
+    assert proc.stderr.startswith("loadscope: input error: shafts[2].features[0].Kt: a stress-concentration factor "
+                                  "below 1 is not possible, got 0.8 (accepted: 1 to 10)")

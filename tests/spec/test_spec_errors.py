@@ -6,6 +6,7 @@ from __future__ import annotations
 import json
 
 import pytest
+from snapshot_edits import at, setter
 
 from loadscope.errors import InputError
 from loadscope.spec import demo_snapshot, drive_from_snapshot, load_snapshot
@@ -14,18 +15,6 @@ GEAR = ("shafts", 0, "gears", 0)          # the helical input pinion
 SPUR = ("shafts", 1, "gears", 1)          # the spur pinion of stage 2
 SECTION = ("shafts", 1, "sections", 1)
 SPROCKET = ("shafts", 2, "pulleys", 0)
-
-
-def at(doc, where):
-    for key in where:
-        doc = doc[key]
-    return doc
-
-
-def setter(where, key, value):
-    def mutate(doc):
-        at(doc, where)[key] = value
-    return mutate
 
 
 def rejected(mutate) -> InputError:
@@ -80,9 +69,9 @@ CASES = [
     (setter(("input",), "element", "flange"), "input.element", "no coupling or pulley 'flange' on shaft 'input'",
      "coupling"),
     (setter(("outputs", 0), "element", "g4"), "outputs[0].element", "no coupling or pulley 'g4'", "sprocket"),
-    (lambda d: d.__setitem__("version", 2), "version", "unsupported snapshot version 2", "1"),
-    (lambda d: d.__setitem__("version", "1"), "version", "unsupported snapshot version '1'", "1"),
-    (lambda d: d.pop("version"), "version", "is required", "1"),
+    (lambda d: d.__setitem__("version", 3), "version", "unsupported snapshot version 3", "1, 2"),
+    (lambda d: d.__setitem__("version", "1"), "version", "unsupported snapshot version '1'", "1, 2"),
+    (lambda d: d.pop("version"), "version", "is required", "1, 2"),
     (lambda d: d.__setitem__("format", "gearbox"), "format", "unknown format 'gearbox'", "loadscope.drive"),
     (lambda d: at(d, GEAR).pop("at"), "shafts[0].gears[0].at", "is required", "a length"),
     (setter(GEAR, "pitch_radiuss", "21 mm"), "shafts[0].gears[0].pitch_radiuss", "is not a field",

@@ -66,6 +66,9 @@ def test_load_cases_get_one_trace_per_case_and_part(demo):
     rl = np.vstack([sr.solution.reactions_local for sr in strong.shafts])
     np.testing.assert_allclose(spec["data"][2]["y"], np.hypot(rl[:, 1], rl[:, 2]), rtol=1e-15)
     assert spec["data"][0]["marker"]["pattern"]["shape"] != spec["data"][2]["marker"]["pattern"]["shape"]
+    # plotly's default fill mode paints a patterned bar in the pattern's background (the page
+    # colour here), hiding the part colour; overlay keeps the colour under the hatch.
+    assert all(t["marker"]["pattern"]["fillmode"] == "overlay" for t in spec["data"])
     assert len({t["offsetgroup"] for t in spec["data"]}) == 4
 
 

@@ -1,0 +1,137 @@
+"""The composed explorers. Each holds one
+:class:`~loadscope.widgets.state.ExplorerState` and arranges parts round it:
+
+* :class:`DriveExplorer` - the whole drive: every parameter, the force scene,
+  reaction bars, the diagrams of a chosen shaft, every load table;
+* :class:`ShaftExplorer` - one shaft: its parameters and the drive's, its
+  diagrams, the reaction bars and its loads;
+* :class:`MeshExplorer` - one gear pair: its parameters and the drive's, the
+  force scene, the reaction bars and the pair's tooth forces.
+
+Each opens on the demo drive when given nothing, and on any snapshot (a
+dict, JSON text, a file path, or a Drive) when given one. A snapshot that is
+not valid raises :class:`~loadscope.InputError` at construction (there is no
+last good state yet); afterwards a bad value anywhere shows its message and
+the explorer keeps its last good state.
+"""
+
+from __future__ import annotations
+
+import html
+from typing import Any
+
+import ipywidgets as W
+
+from .. import CAUTION
+from ..errors import InputError
+from .panel import ParameterPanel
+from .parts import STYLE_HTML, DiagramView, ForceView, LoadTable, MessageBar, ReactionView, UnitsToggle
+from .snapshot import SnapshotBar
+from .state import DriveSource, ExplorerState
+
+
+class _Explorer(W.VBox):
+    """Header (title, units, snapshot bar), message, panel beside the views."""
+
+    def __init__(self, state: ExplorerState, groups: Any, views: list[W.Widget]) -> None:
+        self.state = state
+        self.title = W.HTML()
+        self.units = UnitsToggle(self.state)
+        self.snapshot = SnapshotBar(self.state)
+        self.message = MessageBar(self.state)
+        self.panel = ParameterPanel(self.state, groups)
+        self.views = W.VBox(views, layout=W.Layout(flex="1 1 auto", min_width="480px"))
+        header = W.HBox([self.title, self.units], layout=W.Layout(justify_content="space-between",
+                                                                  align_items="center"))
+        body = W.HBox([self.panel, self.views], layout=W.Layout(align_items="flex-start"))
+        caution = W.HTML(f"<div class='loadscope-caution'>Caution: {CAUTION}</div>")
+        super().__init__([W.HTML(STYLE_HTML), header, self.snapshot, self.message, body, caution])
+        self.add_class("loadscope-explorer")
+        self.state.observe(self._retitle, ["drive"])
+        self._retitle(None)
+
+    def _retitle(self, _change: Any) -> None:
+        # the name may come from an uploaded file: escaped
+        self.title.value = f"<span class='loadscope-title'>{html.escape(self.state.drive.name or 'drive')}</span>"
+
+
+class DriveExplorer(_Explorer):
+    """The whole drive: parameters, force scene, reaction bars, shaft
+    diagrams and load tables.
+
+    Parameters
+    ----------
+    source : Drive, dict, str, Path or None
+        A snapshot (dict, JSON text or file path) or a Drive; None opens the
+        demo drive.
+    units : str
+        ``"si"`` or ``"us"`` to start with.
+    shaft : str or None
+        The shaft whose diagrams show first (default: the last shaft).
+    """
+
+    def __init__(self, source: DriveSource = None, units: str = "si", shaft: str | None = None) -> None:
+        state = ExplorerState(source, units)
+        self.forces = ForceView(state)
+        self.reactions = ReactionView(state)
+        self.diagrams = DiagramView(state, shaft)
+        self.table = LoadTable(state)
+        super().__init__(state, None, [self.forces, self.reactions, self.diagrams, self.table])
+
+    @property
+    def plots(self) -> list[Any]:
+        """Every PlotView of the explorer."""
+        return [self.forces.view, self.reactions.view, self.diagrams.view]
+
+
+class ShaftExplorer(_Explorer):
+    """One shaft with its loads: its parameters (and the drive's speed and
+    power), its diagrams, the reaction bars and its rows of the load table.
+
+    ``shaft`` is the shaft's id (default: the first shaft)."""
+
+    def __init__(self, source: DriveSource = None, shaft: str | None = None, units: str = "si") -> None:
+        state = ExplorerState(source, units)
+        ids = [s.id for s in state.drive.shafts]
+        shaft = ids[0] if shaft is None else shaft
+        if shaft not in ids:
+            raise InputError("shaft", f"no shaft {shaft!r} in this drive", ", ".join(ids))
+        self.shaft_id = shaft
+        self.diagrams = DiagramView(state, shaft)
+        self.reactions = ReactionView(state)
+        self.table = LoadTable(state, shafts=(shaft,), meshes=())
+        super().__init__(state, lambda g: g in ("drive", f"shaft {shaft}"),
+                         [self.diagrams, self.reactions, self.table])
+
+    @property
+    def plots(self) -> list[Any]:
+        """Every PlotView of the explorer."""
+        return [self.diagrams.view, self.reactions.view]
+
+
+class MeshExplorer(_Explorer):
+    """One gear pair: its parameters (pressure angle, helix angle, pitch
+    radius, efficiency) and the drive's speed and power, the force scene,
+    the reaction bars and the pair's tooth forces.
+
+    ``mesh`` is the mesh's id (default: the first mesh)."""
+
+    def __init__(self, source: DriveSource = None, mesh: str | None = None, units: str = "si") -> None:
+        state = ExplorerState(source, units)
+        ids = [m.id for m in state.drive.meshes]
+        if not ids:
+            raise InputError("meshes", "this drive has no gear mesh to explore", ">= 1 mesh")
+        mesh = ids[0] if mesh is None else mesh
+        if mesh not in ids:
+            raise InputError("mesh", f"no mesh {mesh!r} in this drive", ", ".join(ids))
+        self.mesh_id = mesh
+        self.forces = ForceView(state)
+        self.reactions = ReactionView(state)
+        self.table = LoadTable(state, shafts=(), meshes=(mesh,))
+        super().__init__(state, lambda g: g in ("drive", f"mesh {mesh}"),
+                         [self.forces, self.table, self.reactions])
+
+    @property
+    def plots(self) -> list[Any]:
+        """Every PlotView of the explorer."""
+        return [self.forces.view, self.reactions.view]
