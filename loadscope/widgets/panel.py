@@ -8,6 +8,7 @@ value of the state (the message shows in the explorer).
 
 from __future__ import annotations
 
+import html
 import math
 from collections.abc import Callable
 
@@ -138,8 +139,8 @@ class ParameterPanel(W.VBox):
         notes: dict[str, list[str]] = {}
         for p in params:
             groups.setdefault(p.group, []).append(self.controls[p.key].input)
-            if p.note:
-                notes.setdefault(p.group, []).append(f"{p.label}: {p.note}")
+            if p.note:      # ids in labels come from the snapshot: escaped
+                notes.setdefault(p.group, []).append(html.escape(f"{p.label}: {p.note}"))
         boxes = []
         for g, items in groups.items():
             note = W.HTML("<div class='loadscope-note'>" + "<br>".join(notes.get(g, [])) + "</div>")
@@ -148,7 +149,15 @@ class ParameterPanel(W.VBox):
         self.children = [acc]
 
     def _rebuild(self, _change: dict) -> None:
+        # close the old controls' models, or every import would leave them open in the kernel and page
+        old = list(self.children)
         self._build()
+        for acc in old:
+            for box in acc.children:
+                for w in box.children:
+                    w.close()
+                box.close()
+            acc.close()
 
     def _refresh_all(self, _change: dict) -> None:
         for c in self.controls.values():

@@ -285,12 +285,41 @@ def _com_setter(c: int) -> Setter:
     return set_com
 
 
+def _with_case(drive: Drive, k: int, **changes: object) -> Drive:
+    cases = list(drive.cases)
+    cases[k] = dataclasses.replace(cases[k], **changes)
+    return dataclasses.replace(drive, cases=tuple(cases))
+
+
+def _case_params(drive: Drive) -> list[Param]:
+    """Power (or torque) and input speed of each load case; shares must add
+    up to 1 and stay in the snapshot."""
+    out: list[Param] = []
+    for k, c in enumerate(drive.cases):
+        p = f"cases[{k}]"
+        for attr, kind in (("power", "power"), ("torque", "moment")):
+            v = getattr(c, attr)
+            if v is not None:
+                lo, hi = _around(v, 10.0, 3.0)
+                out.append(Param(f"{p}.{attr}", "load cases", f"{c.name}: {attr}", kind, lo, hi, "box",
+                                 lambda d, kk=k, a=attr: getattr(d.cases[kk], a),
+                                 lambda d, x, kk=k, a=attr: _with_case(d, kk, **{a: x})))
+        if c.speed is not None:
+            n = abs(c.speed)
+            sign = math.copysign(1.0, c.speed)
+            out.append(Param(f"{p}.speed", "load cases", f"{c.name}: input speed", "speed", max(n / 10.0, 1e-3),
+                             n * 3.0, "box", lambda d, kk=k: abs(d.cases[kk].speed or 0.0),
+                             lambda d, x, kk=k, sg=sign: _with_case(d, kk, speed=sg * x), "sense of rotation kept"))
+    return out
+
+
 def drive_params(drive: Drive, result: DriveResult) -> list[Param]:
     """Every adjustable number of ``drive`` (solved as ``result``), grouped:
     ``"drive"`` (speed, power or torque, output shares), ``"mesh <id>"``
     (pressure angle, helix angle, pitch radius, efficiency), ``"shaft <id>"``
     (bearing, pulley and coupling positions, pulley radius, point loads,
-    weights, section diameters) and ``"housing"``.
+    weights, section diameters), ``"housing"`` and ``"load cases"`` (each
+    case's power or torque and speed, when the drive has cases).
 
     >>> from loadscope import solve
     >>> from loadscope.spec import demo_snapshot, drive_from_snapshot
@@ -299,4 +328,5 @@ def drive_params(drive: Drive, result: DriveResult) -> list[Param]:
     >>> [p.key for p in ps][:3]
     ['input.speed', 'input.power', 'meshes[0].pressure_angle']
     """
-    return [*_drive_params(drive), *_mesh_params(drive, result), *_shaft_params(drive), *_housing_params(drive)]
+    return [*_drive_params(drive), *_mesh_params(drive, result), *_shaft_params(drive), *_housing_params(drive),
+            *_case_params(drive)]

@@ -10,7 +10,7 @@ import math
 import numpy as np
 import pandas as pd
 import pytest
-from conftest import demo_with, solve_snapshot
+from widget_drives import demo_with, solve_snapshot
 
 from loadscope import InputError
 from loadscope.report import tables
@@ -120,6 +120,19 @@ def test_bad_value_shows_the_message_and_keeps_the_state(recorded):
     assert ex.panel.value("shafts[2].supports[1].at") == pytest.approx(150.0)   # the control went back
     ex.panel.set_value("input.power", 6.0)                       # the next good value clears the message
     assert ex.state.error == "" and ex.message.value == ""
+
+
+@pytest.mark.parametrize("key, value", [
+    ("shafts[0].sections[3].diameter", float("nan")),     # a browser may send anything a number box holds
+    ("input.power", float("nan")),
+    ("meshes[0].efficiency", float("nan")),
+])
+def test_a_value_that_is_not_a_number_is_refused(recorded, key, value):
+    ex, rec = recorded
+    drive = ex.state.drive
+    ex.panel.controls[key].input.value = value
+    assert "must be" in ex.state.error and ex.state.drive is drive
+    assert rec.custom() == []
 
 
 def test_page_round_off_of_a_value_is_not_a_move(recorded):
