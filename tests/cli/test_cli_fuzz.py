@@ -136,7 +136,9 @@ def run(data: bytes, fmt: str = "table", units: str = "si") -> tuple[int, str, s
 
 
 # A field path at the start of the message: shafts[1].supports[0].bearing.C, cases[0], version, FILE ...
-FIELD = re.compile(r"^[A-Za-z_][\w ]*(\[\d+\])*(\.[A-Za-z_][\w ]*(\[\d+\])*)*: ")
+# (a misspelt key is named as written, spaces and all)
+_SEG = r"[^.\[\]:,(){}\"']+"
+FIELD = re.compile(rf"^{_SEG}(\[\d+\])*(\.{_SEG}(\[\d+\])*)*: ")
 WHOLE_DOCUMENT = ("a snapshot must be a JSON object", "NaN is not valid JSON", "Infinity is not valid JSON")
 OUT_OF_RANGE = "the solve ran out of the range of numbers"
 _NAN = re.compile(r"(?i)\bnan\b")
