@@ -75,6 +75,25 @@ def _solve_and_format(drive, fmt: str, units: str) -> str:
     return report.to_text(result, units) + "\n" + report.margins_text(ratings, units)
 
 
+def _read_stdin() -> str:
+    """Standard input as snapshot text. Its content is never taken for a file name (as a text that does not
+    start with '{' would be by ``load_snapshot``)."""
+    buffer = getattr(sys.stdin, "buffer", None)
+    if buffer is None:
+        text = sys.stdin.read()
+    else:
+        raw = buffer.read()
+        try:
+            text = raw.decode("utf-8-sig")
+        except UnicodeDecodeError as exc:
+            raise InputError("FILE", f"standard input is not UTF-8 text: {exc.reason} at byte {exc.start}",
+                             "a JSON snapshot in UTF-8") from None
+    if not text.lstrip().startswith(("{", "[")):
+        raise InputError("FILE", "standard input does not hold a JSON snapshot (it does not start with '{')",
+                         "a JSON object")
+    return text
+
+
 def main(argv: list[str] | None = None) -> int:
     """Run the command line; returns the exit status."""
     args = _parser().parse_args(argv)
@@ -96,7 +115,7 @@ def main(argv: list[str] | None = None) -> int:
             serve(args.port, args.snapshot, not args.no_browser, args.pool, args.base_url)
         elif args.command == "solve":
             if args.file == "-":
-                source: object = sys.stdin.read()
+                source: object = _read_stdin()
             else:
                 path = Path(args.file)
                 if not path.is_file():

@@ -249,3 +249,25 @@ def test_a_drive_with_no_load_reads_unloaded_not_inf():
     status, out, _ = run(data, "json")
     assert status == 0
     check_success(out, "json")
+
+
+@pytest.mark.parametrize("data", [b"\xff\xfe{", b"", b"   \n", WORKDIR.as_posix().encode() + b"/drive.json\n"])
+def test_standard_input_is_read_as_text_never_as_a_file_name(data, monkeypatch):
+    """'-' reads the snapshot from standard input: bytes that are not UTF-8,
+    nothing, or a text that is not JSON (even a file's name) are input
+    errors, never a file to open (exit status 1) or a traceback."""
+    (WORKDIR / "drive.json").write_bytes(CANONICAL)
+    monkeypatch.setattr("sys.stdin", io.TextIOWrapper(io.BytesIO(data)))
+    out, err = io.StringIO(), io.StringIO()
+    with contextlib.redirect_stdout(out), contextlib.redirect_stderr(err):
+        status = main(["solve", "-"])
+    check_error(status, out.getvalue(), err.getvalue(), WORKDIR / "drive.json")
+    assert err.getvalue().startswith("loadscope: input error: FILE: standard input")
+
+
+def test_standard_input_with_a_snapshot_solves(monkeypatch):
+    monkeypatch.setattr("sys.stdin", io.TextIOWrapper(io.BytesIO(b"\xef\xbb\xbf" + CANONICAL)))   # with a BOM
+    out = io.StringIO()
+    with contextlib.redirect_stdout(out):
+        assert main(["solve", "-", "--format", "csv"]) == 0
+    check_success(out.getvalue(), "csv")
