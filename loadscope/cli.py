@@ -5,6 +5,7 @@
         per load case and over the duty cycle)
     loadscope demo [--write FILE]
     loadscope schema
+    loadscope serve [--port N] [--snapshot FILE] [--no-browser] [--pool N] [--base-url /]
 
 Bad input prints one clear message naming the field and exits with status 2;
 it never prints a traceback.
@@ -36,6 +37,12 @@ def _parser() -> argparse.ArgumentParser:
     d.add_argument("--write", metavar="FILE", help="write the demo snapshot to FILE and stop")
     d.add_argument("--units", choices=("si", "us"), default="si")
     sub.add_parser("schema", help="print the JSON Schema of the drive snapshot")
+    v = sub.add_parser("serve", help="serve the dashboards as web pages on 127.0.0.1 (Voila)")
+    v.add_argument("--port", type=int, default=8866)
+    v.add_argument("--snapshot", metavar="FILE", help="open the dashboards on this drive snapshot")
+    v.add_argument("--no-browser", action="store_true", help="do not open a browser")
+    v.add_argument("--pool", type=int, default=1, help="warm kernels kept ready per dashboard (0: none)")
+    v.add_argument("--base-url", default="/", help="URL prefix, e.g. /loadscope/ behind a reverse proxy")
     return p
 
 
@@ -82,6 +89,10 @@ def main(argv: list[str] | None = None) -> int:
             else:
                 drive = spec.drive_from_snapshot(spec.demo_snapshot())
                 sys.stdout.write(_solve_and_format(drive, "table", args.units))
+        elif args.command == "serve":
+            from .serving import serve
+
+            serve(args.port, args.snapshot, not args.no_browser, args.pool, args.base_url)
         elif args.command == "solve":
             if args.file == "-":
                 source: object = sys.stdin.read()

@@ -100,8 +100,14 @@ def ratings_to_dict(ratings: DriveRatings, units: str = "si", loads: bool = Fals
     from .results import result_to_dict
 
     def rows(case: str) -> list[dict[str, Any]]:
-        return [{k: (_json_number(v) if isinstance(v, float) else v) for k, v in r.items()}
-                for r in margins_rows(ratings, case, units)]
+        checks = {(c.kind, c.component, c.check): c for c in _checks(ratings, case)}
+        out = []
+        for r in margins_rows(ratings, case, units):
+            row: dict[str, Any] = {k: (_json_number(v) if isinstance(v, float) else v) for k, v in r.items()}
+            det = checks[(r["kind"], r["component"], r["check"])].details
+            row["details_si"] = {k: _json_number(float(v)) for k, v in det.items()}
+            out.append(row)
+        return out
 
     cases = []
     for cr in ratings.cases:
@@ -115,6 +121,8 @@ def ratings_to_dict(ratings: DriveRatings, units: str = "si", loads: bool = Fals
             doc = result_to_dict(cr.result, units)
             cases[-1]["loads"] = {k: v for k, v in doc.items() if k not in ("format", "version", "caution")}
     return {"caution": CAUTION, "watch_band": WATCH_BAND,
+            "details_si": "intermediate numbers in SI units (N, m, Pa, rad/s, rad; lives in h, or 10^6 rev for "
+                          "L10 and Lnm)",
             "margin": "allowable/value - 1 for limits not to exceed, value/allowable - 1 for values to reach",
             "cases": cases, "duty_cycle": {"name": DUTY_CYCLE, "margins": rows(DUTY_CYCLE)}}
 

@@ -1,0 +1,81 @@
+"""The Voila application behind ``loadscope serve``.
+
+Voila itself does the serving; this subclass adds two things its configuration
+cannot express:
+
+* a static, browser-cacheable route for the ``plotly.min.js`` shipped in the
+  plotly package, so a page loads plotly.js once per browser instead of once
+  per figure over the websocket (the figure views find it through
+  ``LOADSCOPE_PLOTLY_URL``);
+* the ``_xsrf`` cookie on every dashboard page. Voila's page sends a shutdown
+  beacon when it closes, but the beacon is refused (403) while the cookie is
+  missing, so closed pages would leave their kernels running until culled.
+  Voila's ``prelaunch_hook`` can set the cookie too, but it cannot be combined
+  with a warm kernel pool; setting it in the page handler can.
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+from typing import Any
+
+import plotly
+import tornado.web
+from jupyter_server.utils import url_path_join
+from voila.app import Voila
+from voila.tornado.handler import TornadoVoilaHandler
+
+#: the route of the static plotly.js, under the server's base URL
+PLOTLY_ROUTE = "loadscope/static/"
+PLOTLY_FILE = "plotly.min.js"
+
+
+def plotly_bundle() -> Path:
+    """The ``plotly.min.js`` shipped inside the installed plotly package."""
+    return Path(plotly.__file__).parent / "package_data" / PLOTLY_FILE
+
+
+def plotly_url(base_url: str = "/") -> str:
+    """Absolute path (under ``base_url``) the page loads plotly.js from; the
+    version in the query makes it safe to cache for good.
+
+    >>> plotly_url("/team/").startswith("/team/loadscope/static/plotly.min.js?v=")
+    True
+    """
+    return url_path_join(base_url, PLOTLY_ROUTE, PLOTLY_FILE) + f"?v={plotly.__version__}"
+
+
+class _PlotlyHandler(tornado.web.StaticFileHandler):
+    """Serves the one plotly.min.js file; cached by the browser for a year
+    (the URL carries plotly's version, so an upgrade gets a new URL)."""
+
+    def get_cache_time(self, path: str, modified: Any, mime_type: str) -> int:
+        return 365 * 24 * 3600
+
+    def set_extra_headers(self, path: str) -> None:
+        self.set_header("Cache-Control", "public, max-age=31536000, immutable")
+
+
+class _PageHandler(TornadoVoilaHandler):
+    """A dashboard page that also sets the ``_xsrf`` cookie its shutdown beacon needs."""
+
+    async def prepare(self) -> None:
+        pending = super().prepare()     # authenticates: the cookie depends on the user
+        if pending is not None:
+            await pending
+        self.xsrf_token  # noqa: B018 - reading it sets the cookie
+
+
+class DashboardServer(Voila):
+    """Voila with the plotly route and the cookie-setting page handler."""
+
+    def init_handlers(self) -> list:
+        handlers = []
+        for spec in super().init_handlers():
+            if len(spec) > 1 and spec[1] is TornadoVoilaHandler:
+                spec = (spec[0], _PageHandler, *spec[2:])
+            handlers.append(spec)
+        bundle = plotly_bundle()
+        route = url_path_join(self.server_url, PLOTLY_ROUTE, r"(plotly\.min\.js)")
+        handlers.insert(0, (route, _PlotlyHandler, {"path": str(bundle.parent)}))
+        return handlers
