@@ -105,6 +105,24 @@ def test_pitch_radius_slider_keeps_the_centre_distance(recorded):
     assert abs(speed) == pytest.approx(1460 * 30 / 87, rel=1e-9)
 
 
+def test_pitch_radius_of_a_pinion_in_a_ring_keeps_the_centre_distance():
+    def ring(s):            # stage 2 as an internal pair: 166.5 - 28.5 = 138 mm, the shafts' distance
+        s["shafts"][2]["gears"][0].update(internal=True, pitch_radius="166.5 mm", teeth=111)
+    with capture_comms():
+        ex = DriveExplorer(demo_with(ring), rating="off")
+    ex.panel.set_value("meshes[1].pitch_radius", 30.0)           # mm, the pinion p3; the ring follows
+    assert ex.state.error == ""
+    g = {gr.id: gr for sh in ex.state.drive.shafts for gr in sh.gears}
+    assert g["g4"].pitch_radius - g["p3"].pitch_radius == pytest.approx(0.138, rel=1e-12)
+
+    def edit(s):
+        ring(s)
+        for shaft, k, r in ((1, 1, "30 mm"), (2, 0, "168 mm")):
+            s["shafts"][shaft]["gears"][k]["pitch_radius"] = r
+            del s["shafts"][shaft]["gears"][k]["teeth"]
+    _same_tables(ex, solve_snapshot(demo_with(edit)))
+
+
 def test_bad_value_shows_the_message_and_keeps_the_state(recorded):
     ex, rec = recorded
     drive, result = ex.state.drive, ex.state.result
