@@ -93,15 +93,22 @@ class _BearingLoad:
 
 
 def _equivalent(b: Bearing, fr: float, fa: float, path: str) -> tuple[float, dict[str, float]]:
+    """P [N] and the factors used: X, Y are those of the branch taken (1 and
+    0 while Fa/Fr <= e), e the limit."""
+    fa = abs(fa)
     if b.type == "deep_groove":
         assert b.C0 is not None and b.f0 is not None
         p = float(brg.deep_groove_equivalent_load(fr, fa, b.C0, b.f0, clamp=True, path=path))
-        rel = b.f0 * abs(fa) / b.C0
+        rel = b.f0 * fa / b.C0
         e, x, y = (float(v) for v in brg.deep_groove_factors(rel, clamp=True))
-        return p, {"relative_axial": rel, "e": e, "X": x, "Y": y}
-    x, y, e = b.factors()
-    p = float(brg.equivalent_load(fr, fa, x, y, e, path=path))
-    return p, {"e": e, "X": x, "Y": y}
+        det = {"relative_axial": rel}
+    else:
+        x, y, e = b.factors()
+        p = float(brg.equivalent_load(fr, fa, x, y, e, path=path))
+        det = {}
+    if fa <= e * fr:
+        x, y = 1.0, 0.0
+    return p, dict(det, e=e, X=x, Y=y)
 
 
 def _shaft_bearing_loads(shaft: Shaft, res: DriveResult, index: int) -> list[_BearingLoad]:

@@ -94,6 +94,7 @@ def test_deep_groove_life_by_hand(ratings, drive):
     c = _one(cr.checks, "bearing", "input/A", "life")
     assert c.details["equivalent_load"] == pytest.approx(p, rel=1e-12)
     assert c.value == pytest.approx(hours, rel=1e-12)
+    assert (c.details["X"], c.details["Y"]) == ((0.56, pytest.approx(y)) if fa / fr > e else (1.0, 0.0))
     assert c.allowable == b.target_life and c.sense == "min"
     assert c.margin == pytest.approx(hours / b.target_life - 1, rel=1e-12)
     assert "ISO 281" in c.method
