@@ -245,6 +245,10 @@ def test_demo_bearings_match_iso281_by_hand_in_every_case(demo_ratings):
             assert c.details["Lnm"] == pytest.approx(l10, rel=REL)       # a1(90 %) = 1
             assert c.value == pytest.approx(l10h, rel=REL)
             assert c.allowable == 20000.0             # hours
+            # the inverse: the C that gives exactly the 20 000 h target, C = P (60 n L10h / 10^6)^(1/p)
+            rpm = abs(exp[comp][3]) * 30.0 / math.pi
+            c_req = p * (60.0 * rpm * 20000.0 / 1e6) ** (1.0 / (3.0 if btype == "deep_groove" else 10.0 / 3.0))
+            assert c.details["required_C"] == pytest.approx(c_req, rel=REL)
             if btype == "deep_groove" and c.details["axial"] > 0:
                 rel = c.details["relative_axial"]
                 seen_interpolated |= T3_REL[0] < rel < T3_REL[-1] and rel not in T3_REL
@@ -330,6 +334,8 @@ def test_duty_cycle_is_the_revolution_weighted_p_mean_and_palmgren_miner(demo_ra
         hours = life * 1e6 / (60.0 * float((shares * rpm).sum()))
         d = check(demo_ratings.duty, comp, "life Lnm")
         assert d.details["equivalent_load"] == pytest.approx(pm, rel=REL)
+        c_req = pm * (60.0 * float((shares * rpm).sum()) * 20000.0 / 1e6) ** (1.0 / exp)
+        assert d.details["required_C"] == pytest.approx(c_req, rel=REL)
         assert d.value == pytest.approx(hours, rel=REL)
         # damage shares: each case's u_i / L_i over the total
         dmg = u / (c_rating / p) ** exp
