@@ -4,7 +4,7 @@ the kernel's rating (the oracle: the same drive written as a snapshot)."""
 from __future__ import annotations
 
 import asyncio
-import threading
+from concurrent.futures import ThreadPoolExecutor
 from dataclasses import replace
 
 import numpy as np
@@ -62,26 +62,10 @@ def test_deferred_rating_waits_for_the_controls_to_be_still():
         await asyncio.sleep(RATING_DELAY * 2 + 0.2)
         assert state.ratings_current and state.ratings is not first
         assert state.ratings.cases[0].case.power == pytest.approx(5400.0)   # the last state, rated once
-    _run_in_own_thread(scenario())
-
-
-def _run_in_own_thread(coro) -> None:
-    """asyncio.run on a worker thread: the session's sync Playwright browser
-    (tests/dashboards) keeps an event loop running on the main thread, where
-    asyncio.run refuses to start."""
-    failure: list[BaseException] = []
-
-    def target() -> None:
-        try:
-            asyncio.run(coro)
-        except BaseException as exc:   # handed to the test's thread below
-            failure.append(exc)
-
-    t = threading.Thread(target=target)
-    t.start()
-    t.join()
-    if failure:
-        raise failure[0]
+    # A fresh thread has no running event loop, whatever an earlier test (a browser
+    # session's sync driver) left running on this one.
+    with ThreadPoolExecutor(1) as pool:
+        pool.submit(asyncio.run, scenario()).result()
 
 
 def test_shaft_explorer_shows_only_its_margins():
