@@ -38,7 +38,8 @@ from loadscope.cli import main
 
 DEMO = spec.demo_snapshot()
 CANONICAL = spec.dump_snapshot(spec.demo_snapshot()).encode("utf-8")
-WORKDIR = Path(tempfile.mkdtemp(prefix="loadscope-fuzz-"))
+_TMP = tempfile.TemporaryDirectory(prefix="loadscope-fuzz-")     # removed when the session ends
+WORKDIR = Path(_TMP.name)
 
 
 def _paths(node, prefix=()):
