@@ -76,8 +76,6 @@ class RatingCheck:
         return "fail" if m < 0.0 else "watch" if m < WATCH_BAND else "pass"
 
 
-
-
 def governing(checks: tuple[RatingCheck, ...] | list[RatingCheck]) -> list[RatingCheck]:
     """The governing check (smallest margin) of each component, sorted by margin."""
     best: dict[tuple[str, str], RatingCheck] = {}

@@ -21,10 +21,11 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, field
-from typing import Literal
+from typing import ClassVar, Literal
 
 from ..errors import InputError
-from . import checks
+from . import checks, fasteners
+from .fasteners import BoltStrength
 
 BearingType = Literal["deep_groove", "angular_contact", "tapered_roller", "custom"]
 RollingKind = Literal["ball", "roller"]
@@ -280,7 +281,7 @@ class StiffnessLimits:
     other_bearing_slope: float = 1.0e-3
     path: str = field(default="limits", compare=False)
 
-    SOURCES = {
+    SOURCES: ClassVar[dict[str, str]] = {
         "gear_deflection": "Shigley 9th ed. Table 7-2 (from memory)",
         "gear_slope": "Shigley 9th ed. Table 7-2 (from memory)",
         "mesh_misalignment": "Shigley 9th ed. Table 7-2 (from memory)",
@@ -369,9 +370,8 @@ class Fastener:
         """Thread form: metric for ISO 898-1, Unified inch for SAE J429."""
         return "metric" if self.standard == "iso_898_1" else "unified"
 
-    def strength(self):  # -> fasteners.BoltStrength (imported late: keeps this module light)
+    def strength(self) -> BoltStrength:
         """The minimum strengths of the class at this diameter."""
-        from . import fasteners
         try:
             if self.standard == "iso_898_1":
                 return fasteners.iso_property_class(self.grade, self.diameter, self.path)
@@ -383,7 +383,6 @@ class Fastener:
 
     def thread_pitch(self) -> float:
         """The pitch [m]: given, or the coarse pitch of the nominal size."""
-        from . import fasteners
         if self.pitch is not None:
             fasteners.tensile_stress_area(self.diameter, self.pitch, self.form, self.path)
             return self.pitch

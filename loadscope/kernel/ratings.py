@@ -11,6 +11,16 @@ check of one component in one case, with its value, its allowable, the
 sense of the comparison, the method it follows, its margin and its status
 (see :mod:`loadscope.kernel.ratingcheck` for the margin and the watch band).
 
+Bearings: Fr and Fa from the support's reaction; a pair (angular-contact or
+tapered-roller) carries the shaft's whole thrust by the catalogue method
+(:func:`~loadscope.kernel.bearings.paired_axial_loads`). An unpaired
+angular-contact or tapered-roller bearing is rated with the axial load the
+solver gives it: its induced force is not added (pair it to count it).
+Deep-groove X, Y, e come from ISO 281 Table 3; below the table's first row
+(f0 Fa / C0 < 0.172) the first row is used (its Y is the largest, the safe
+side; common practice); beyond the last row a separate check fails, since
+ISO 281 gives no value there.
+
 Results are for preliminary design; they must be checked by a qualified
 engineer, and local codes, standards and licensed practice govern.
 """
@@ -83,15 +93,22 @@ class _BearingLoad:
 
 
 def _equivalent(b: Bearing, fr: float, fa: float, path: str) -> tuple[float, dict[str, float]]:
+    """P [N] and the factors used: X, Y are those of the branch taken (1 and
+    0 while Fa/Fr <= e), e the limit."""
+    fa = abs(fa)
     if b.type == "deep_groove":
         assert b.C0 is not None and b.f0 is not None
         p = float(brg.deep_groove_equivalent_load(fr, fa, b.C0, b.f0, clamp=True, path=path))
-        rel = b.f0 * abs(fa) / b.C0
+        rel = b.f0 * fa / b.C0
         e, x, y = (float(v) for v in brg.deep_groove_factors(rel, clamp=True))
-        return p, {"relative_axial": rel, "e": e, "X": x, "Y": y}
-    x, y, e = b.factors()
-    p = float(brg.equivalent_load(fr, fa, x, y, e, path=path))
-    return p, {"e": e, "X": x, "Y": y}
+        det = {"relative_axial": rel}
+    else:
+        x, y, e = b.factors()
+        p = float(brg.equivalent_load(fr, fa, x, y, e, path=path))
+        det = {}
+    if fa <= e * fr:
+        x, y = 1.0, 0.0
+    return p, dict(det, e=e, X=x, Y=y)
 
 
 def _shaft_bearing_loads(shaft: Shaft, res: DriveResult, index: int) -> list[_BearingLoad]:
@@ -141,7 +158,11 @@ def _bearing_checks(case: str, res: DriveResult) -> list[RatingCheck]:
             l10 = float(brg.basic_rating_life(b.C, bl.load, b.rolling, where))
             lnm = float(brg.modified_rating_life(b.C, bl.load, b.rolling, b.reliability, method="weibull", path=where))
             hours = float(brg.life_hours(lnm, bl.speed, where))
-            det = dict(bl.details, L10=l10, L10h=float(brg.life_hours(l10, bl.speed, where)), Lnm=lnm, Lnmh=hours)
+            target_rev = brg.revolutions(b.target_life, bl.speed, where)
+            need = float(brg.required_dynamic_rating(bl.load, target_rev, b.rolling, b.reliability, method="weibull",
+                                                     path=where))
+            det = dict(bl.details, L10=l10, L10h=float(brg.life_hours(l10, bl.speed, where)), Lnm=lnm, Lnmh=hours,
+                       required_C=need)
             comp = f"{shaft.id}/{bl.support}"
             at = next(s.at for s in shaft.supports if s.id == bl.support)
             rel = f"{b.reliability * 100:g} %"
@@ -174,7 +195,10 @@ def _bearing_duty(runs: tuple[CaseResult, ...]) -> list[RatingCheck]:
         life = brg.duty_cycle_life(b.C, loads, speeds, shares, b.rolling, b.reliability, method="weibull",
                                    path=where)
         shaft = drive.shafts[i]
-        det = {"equivalent_load": float(life.equivalent_load), "Lnm": float(life.life), "Lnmh": float(life.hours)}
+        # The life goes as C^p, so the rating that just reaches the target follows by scaling.
+        need = b.C * (b.target_life / float(life.hours)) ** (1.0 / brg.LIFE_EXPONENT[b.rolling])
+        det = {"equivalent_load": float(life.equivalent_load), "Lnm": float(life.life), "Lnmh": float(life.hours),
+               "required_C": need}
         for r, share in zip(runs, np.atleast_1d(life.damage_share)):
             det[f"damage_share[{r.case.name}]"] = float(share)
         at = next(s.at for s in shaft.supports if s.id == sid)

@@ -10,7 +10,7 @@ file path or Drive):
 
 Parts, to compose other layouts round one :class:`ExplorerState`:
 :class:`ParameterPanel`, :class:`ForceView`, :class:`ReactionView`,
-:class:`DiagramView`, :class:`LoadTable`, :class:`SnapshotBar`,
+:class:`DiagramView`, :class:`LoadTable`, :class:`MarginTable`, :class:`SnapshotBar`,
 :class:`UnitsToggle`, :class:`MessageBar`; the figure transport
 :class:`PlotView`. Results are for preliminary design (``loadscope.CAUTION``).
 """
@@ -18,13 +18,13 @@ Parts, to compose other layouts round one :class:`ExplorerState`:
 from .explorers import DriveExplorer, MeshExplorer, ShaftExplorer
 from .panel import ParameterPanel
 from .params import Param, drive_params
-from .parts import DiagramView, ForceView, LoadTable, MessageBar, ReactionView, UnitsToggle
+from .parts import DiagramView, ForceView, LoadTable, MarginTable, MessageBar, ReactionView, UnitsToggle
 from .plotview import PLOTLY_URL_ENV, PlotView, apply_update
 from .snapshot import MAX_UPLOAD, DownloadButton, SnapshotBar
 from .state import ExplorerState, read_drive
 
 __all__ = [
     "MAX_UPLOAD", "PLOTLY_URL_ENV", "DiagramView", "DownloadButton", "DriveExplorer", "ExplorerState", "ForceView",
-    "LoadTable", "MeshExplorer", "MessageBar", "Param", "ParameterPanel", "PlotView", "ReactionView",
+    "LoadTable", "MarginTable", "MeshExplorer", "MessageBar", "Param", "ParameterPanel", "PlotView", "ReactionView",
     "ShaftExplorer", "SnapshotBar", "UnitsToggle", "apply_update", "drive_params", "read_drive",
 ]

@@ -25,7 +25,7 @@ import ipywidgets as W
 from .. import CAUTION
 from ..errors import InputError
 from .panel import ParameterPanel
-from .parts import STYLE_HTML, DiagramView, ForceView, LoadTable, MessageBar, ReactionView, UnitsToggle
+from .parts import STYLE_HTML, DiagramView, ForceView, LoadTable, MarginTable, MessageBar, ReactionView, UnitsToggle
 from .snapshot import SnapshotBar
 from .state import DriveSource, ExplorerState
 
@@ -68,15 +68,20 @@ class DriveExplorer(_Explorer):
         ``"si"`` or ``"us"`` to start with.
     shaft : str or None
         The shaft whose diagrams show first (default: the last shaft).
+    rating : str
+        When margins are worked out: ``"deferred"`` (once the controls are
+        still), ``"sync"`` (every change) or ``"off"``.
     """
 
-    def __init__(self, source: DriveSource = None, units: str = "si", shaft: str | None = None) -> None:
-        state = ExplorerState(source, units)
+    def __init__(self, source: DriveSource = None, units: str = "si", shaft: str | None = None,
+                 rating: str = "deferred") -> None:
+        state = ExplorerState(source, units, rating)
         self.forces = ForceView(state)
         self.reactions = ReactionView(state)
         self.diagrams = DiagramView(state, shaft)
         self.table = LoadTable(state)
-        super().__init__(state, None, [self.forces, self.reactions, self.diagrams, self.table])
+        self.margins = MarginTable(state)
+        super().__init__(state, None, [self.forces, self.reactions, self.diagrams, self.table, self.margins])
 
     @property
     def plots(self) -> list[Any]:
@@ -90,8 +95,9 @@ class ShaftExplorer(_Explorer):
 
     ``shaft`` is the shaft's id (default: the first shaft)."""
 
-    def __init__(self, source: DriveSource = None, shaft: str | None = None, units: str = "si") -> None:
-        state = ExplorerState(source, units)
+    def __init__(self, source: DriveSource = None, shaft: str | None = None, units: str = "si",
+                 rating: str = "deferred") -> None:
+        state = ExplorerState(source, units, rating)
         ids = [s.id for s in state.drive.shafts]
         shaft = ids[0] if shaft is None else shaft
         if shaft not in ids:
@@ -100,8 +106,9 @@ class ShaftExplorer(_Explorer):
         self.diagrams = DiagramView(state, shaft)
         self.reactions = ReactionView(state)
         self.table = LoadTable(state, shafts=(shaft,), meshes=())
+        self.margins = MarginTable(state, shafts=(shaft,))
         super().__init__(state, lambda g: g in ("drive", f"shaft {shaft}"),
-                         [self.diagrams, self.reactions, self.table])
+                         [self.diagrams, self.reactions, self.table, self.margins])
 
     @property
     def plots(self) -> list[Any]:
@@ -116,8 +123,9 @@ class MeshExplorer(_Explorer):
 
     ``mesh`` is the mesh's id (default: the first mesh)."""
 
-    def __init__(self, source: DriveSource = None, mesh: str | None = None, units: str = "si") -> None:
-        state = ExplorerState(source, units)
+    def __init__(self, source: DriveSource = None, mesh: str | None = None, units: str = "si",
+                 rating: str = "off") -> None:
+        state = ExplorerState(source, units, rating)
         ids = [m.id for m in state.drive.meshes]
         if not ids:
             raise InputError("meshes", "this drive has no gear mesh to explore", ">= 1 mesh")

@@ -177,7 +177,12 @@ def _mesh_params(drive: Drive, result: DriveResult) -> list[Param]:
             internal = ga.internal or _gear(drive, b_id).internal
             r_a, r_b = geo.radius
             centre = abs(r_a - r_b) if internal else r_a + r_b
-            lo, hi = (0.1 * centre, 3.0 * centre) if internal else (0.1 * centre, 0.9 * centre)
+            if not internal:
+                lo, hi = 0.1 * centre, 0.9 * centre
+            elif ga.internal:                       # the ring itself: it must stay larger than the distance
+                lo, hi = 1.1 * centre, 4.0 * centre
+            else:
+                lo, hi = 0.1 * centre, 3.0 * centre
             out.append(Param(f"meshes[{m_i}].pitch_radius", group, f"pitch radius of {a_id}", "length", lo, hi,
                              "slider", lambda d, g=a_id: _gear(d, g).pitch_radius,
                              _radius_setter(a_id, b_id, centre, internal),
@@ -285,12 +290,41 @@ def _com_setter(c: int) -> Setter:
     return set_com
 
 
+def _with_case(drive: Drive, k: int, **changes: object) -> Drive:
+    cases = list(drive.cases)
+    cases[k] = dataclasses.replace(cases[k], **changes)
+    return dataclasses.replace(drive, cases=tuple(cases))
+
+
+def _case_params(drive: Drive) -> list[Param]:
+    """Power (or torque) and input speed of each load case; shares must add
+    up to 1 and stay in the snapshot."""
+    out: list[Param] = []
+    for k, c in enumerate(drive.cases):
+        p = f"cases[{k}]"
+        for attr, kind in (("power", "power"), ("torque", "moment")):
+            v = getattr(c, attr)
+            if v is not None:
+                lo, hi = _around(v, 10.0, 3.0)
+                out.append(Param(f"{p}.{attr}", "load cases", f"{c.name}: {attr}", kind, lo, hi, "box",
+                                 lambda d, kk=k, a=attr: getattr(d.cases[kk], a),
+                                 lambda d, x, kk=k, a=attr: _with_case(d, kk, **{a: x})))
+        if c.speed is not None:
+            n = abs(c.speed)
+            sign = math.copysign(1.0, c.speed)
+            out.append(Param(f"{p}.speed", "load cases", f"{c.name}: input speed", "speed", max(n / 10.0, 1e-3),
+                             n * 3.0, "box", lambda d, kk=k: abs(d.cases[kk].speed or 0.0),
+                             lambda d, x, kk=k, sg=sign: _with_case(d, kk, speed=sg * x), "sense of rotation kept"))
+    return out
+
+
 def drive_params(drive: Drive, result: DriveResult) -> list[Param]:
     """Every adjustable number of ``drive`` (solved as ``result``), grouped:
     ``"drive"`` (speed, power or torque, output shares), ``"mesh <id>"``
     (pressure angle, helix angle, pitch radius, efficiency), ``"shaft <id>"``
     (bearing, pulley and coupling positions, pulley radius, point loads,
-    weights, section diameters) and ``"housing"``.
+    weights, section diameters), ``"housing"`` and ``"load cases"`` (each
+    case's power or torque and speed, when the drive has cases).
 
     >>> from loadscope import solve
     >>> from loadscope.spec import demo_snapshot, drive_from_snapshot
@@ -299,4 +333,5 @@ def drive_params(drive: Drive, result: DriveResult) -> list[Param]:
     >>> [p.key for p in ps][:3]
     ['input.speed', 'input.power', 'meshes[0].pressure_angle']
     """
-    return [*_drive_params(drive), *_mesh_params(drive, result), *_shaft_params(drive), *_housing_params(drive)]
+    return [*_drive_params(drive), *_mesh_params(drive, result), *_shaft_params(drive), *_housing_params(drive),
+            *_case_params(drive)]

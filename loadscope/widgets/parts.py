@@ -9,19 +9,24 @@ mechanics.
 * :class:`DiagramView` - shear, bending, torque, deflection of a chosen shaft
 * :class:`LoadTable` - tables of every load, with the change from the pinned
   state beside each value
+* :class:`MarginTable` - the margins of every rated component, per load case
+  and for the duty cycle
 * :class:`UnitsToggle`, :class:`MessageBar`
 """
 
 from __future__ import annotations
 
 import html
+import math
 from typing import Any
 
 import ipywidgets as W
 
 from .. import CAUTION
+from ..kernel.ratings import DUTY_CYCLE
 from ..kernel.solve import DriveResult
-from ..report import table_rows
+from ..report import case_names, margins_rows, table_rows
+from ..report.units import label
 from ..viz import force_scene, reaction_bars, shaft_diagrams
 from ..viz.style import PALETTE, number
 from .plotview import PlotView
@@ -31,6 +36,7 @@ from .state import ExplorerState
 UNIT_CHOICES = (("SI · N, mm, N·m, kW", "si"), ("US · lbf, in, lbf·in, hp", "us"))
 SHOW_LABELS = (("applied loads", "applied"), ("reactions", "reactions"), ("both", "both"))
 PARTS_LABELS = (("radial and axial", "radial_axial"), ("x, y, z parts", "components"))
+BARS_LABELS = (("this state", "state"), ("load cases", "cases"))
 
 
 class UnitsToggle(W.ToggleButtons):
@@ -69,51 +75,80 @@ class ForceView(W.VBox):
         self.show = W.ToggleButtons(options=SHOW_LABELS, value="applied", description="arrows",
                                     style={"button_width": "110px"})
         self._scale: float | None = None
+        self._topology = state.topology
         self.view = PlotView(self._spec())
         super().__init__([self.show, self.view])
         self.add_class("loadscope-force-view")
         self.show.observe(self.redraw, "value")
-        state.observe(self._reset, "topology")
         state.observe(self.redraw, ["result", "units"])
 
     def _spec(self) -> dict[str, Any]:
+        if self._topology != self.state.topology:      # another drive: a fresh arrow scale
+            self._topology, self._scale = self.state.topology, None
         spec = force_scene(self.state.result, self.state.units, self.show.value, self._scale)
         self._scale = spec["layout"]["meta"]["arrow_scale"] or None
         return spec
-
-    def _reset(self, _change: Any) -> None:
-        self._scale = None
 
     def redraw(self, _change: Any = None) -> None:
         self.view.show(self._spec())
 
 
-def _cases(state: ExplorerState) -> dict[str, DriveResult] | None:
-    """The current result beside the pinned one, when both have the same bearings."""
-    pinned = state.pinned
-    if pinned is None:
-        return None
-    same = [(s.id, s.solution.support_ids) for s in pinned.shafts] == \
-           [(s.id, s.solution.support_ids) for s in state.result.shafts]
-    return {"now": state.result, "pinned": pinned} if same else None
+def _same_bearings(a: DriveResult, b: DriveResult) -> bool:
+    return [(s.id, s.solution.support_ids) for s in a.shafts] == [(s.id, s.solution.support_ids) for s in b.shafts]
 
 
 class ReactionView(W.VBox):
-    """Bearing reaction bars; the pinned state, when there is one, as a
-    second, hatched set of bars."""
+    """Bearing reaction bars: radial and axial, or global x, y, z parts.
+
+    ``bars`` chooses what is drawn: ``"state"`` - the current state, and the
+    pinned one beside it (hatched) when there is one; ``"cases"`` - one set of
+    bars per load case of the drive (from the last rating; the note says
+    when the rating is still to come)."""
 
     def __init__(self, state: ExplorerState) -> None:
         self.state = state
         self.parts = W.ToggleButtons(options=PARTS_LABELS, value="radial_axial", description="show",
                                      style={"button_width": "130px"})
+        self.bars = W.ToggleButtons(options=BARS_LABELS, value="state", description="bars",
+                                    style={"button_width": "130px"})
+        self.note = W.HTML()
         self.view = PlotView(self._spec())
-        super().__init__([self.parts, self.view])
+        super().__init__([W.HBox([self.parts, self.bars]), self.note, self.view])
         self.add_class("loadscope-reaction-view")
         self.parts.observe(self.redraw, "value")
-        state.observe(self.redraw, ["result", "units", "pinned"])
+        self.bars.observe(self.redraw, "value")
+        state.observe(self._state_changed, ["result", "units", "pinned"])
+        state.observe(self._ratings_changed, ["ratings", "ratings_current"])
+
+    def cases(self) -> dict[str, DriveResult] | None:
+        """The results drawn as separate sets of bars, or None for the current state alone."""
+        st = self.state
+        if self.bars.value == "cases":
+            if st.ratings is not None and st.ratings.cases and _same_bearings(st.ratings.cases[0].result, st.result):
+                return {c.case.name: c.result for c in st.ratings.cases}
+            return None
+        if st.pinned is not None and _same_bearings(st.pinned, st.result):
+            return {"now": st.result, "pinned": st.pinned}
+        return None
 
     def _spec(self) -> dict[str, Any]:
-        return reaction_bars(self.state.result, self.state.units, self.parts.value, _cases(self.state))
+        st = self.state
+        if self.bars.value == "cases":
+            if st.rating == "off":
+                text = "load cases are solved with the margins, which this explorer does not work out"
+            else:
+                text = "" if st.ratings_current else "load cases: updating when the controls are still"
+            self.note.value = f"<span class='loadscope-note'>{text}</span>" if text else ""
+        else:
+            self.note.value = ""
+        return reaction_bars(st.result, st.units, self.parts.value, self.cases())
+
+    def _state_changed(self, _change: Any) -> None:
+        self.redraw()
+
+    def _ratings_changed(self, _change: Any) -> None:
+        if self.bars.value == "cases":
+            self.redraw()
 
     def redraw(self, _change: Any = None) -> None:
         self.view.show(self._spec())
@@ -135,14 +170,15 @@ class DiagramView(W.VBox):
         state.observe(self.redraw, ["result", "units"])
 
     def _spec(self) -> dict[str, Any]:
+        if self.shaft.value not in [s.id for s in self.state.drive.shafts]:
+            self._new_drive(None)                      # the notice of a new drive may come after the result's
         return shaft_diagrams(self.state.result, self.shaft.value, self.state.units)
 
     def _new_drive(self, _change: Any) -> None:
         ids = [s.id for s in self.state.drive.shafts]
-        with self.shaft.hold_trait_notifications():
-            self.shaft.options = ids
-            if self.shaft.value not in ids:
-                self.shaft.value = ids[-1]
+        keep = self.shaft.value if self.shaft.value in ids else ids[-1]
+        self.shaft.options = ids                       # (this selects the first option ...)
+        self.shaft.value = keep
 
     def redraw(self, _change: Any = None) -> None:
         self.view.show(self._spec())
@@ -247,6 +283,80 @@ class LoadTable(W.HTML):
         self.value = pin + "".join(parts) + f"<p class='caution'>Caution: {html.escape(CAUTION)}</p>"
 
 
+def _margin_text(m: float) -> str:
+    if math.isinf(m):
+        return "unloaded"
+    return "> +999 %" if m > 9.99 else f"{m * 100:+.1f} %"
+
+
+def _component_shaft(component: str) -> str:
+    """The shaft a margins row belongs to ("output/F", "output at step 3")."""
+    return component.split("/")[0].split(" at ")[0]
+
+
+class MarginTable(W.VBox):
+    """The margins of every rated component (``loadscope.report.margins_rows``:
+    the governing check of each, smallest margin first) for the duty cycle or
+    one load case, chosen in the drop-down. Margins come from the last rating
+    (see :class:`~loadscope.widgets.state.ExplorerState`); a note says when
+    the controls have moved since. ``shafts`` keeps the rows of those shafts."""
+
+    def __init__(self, state: ExplorerState, shafts: tuple[str, ...] | None = None) -> None:
+        self.state = state
+        self._shafts = shafts
+        self.case = W.Dropdown(options=[DUTY_CYCLE], value=DUTY_CYCLE, description="margins of")
+        self.html = W.HTML()
+        self.html.add_class("loadscope-table")
+        self.rows: list[dict[str, Any]] = []
+        super().__init__([self.case, self.html])
+        self.add_class("loadscope-margins")
+        self.case.observe(self.redraw, "value")
+        state.observe(self._rated, ["ratings", "ratings_current", "rating_error", "units"])
+        self._rated(None)
+
+    def _rated(self, _change: Any) -> None:
+        r = self.state.ratings
+        names = case_names(r) if r is not None else [DUTY_CYCLE]
+        if list(self.case.options) != names:
+            keep = self.case.value if self.case.value in names else DUTY_CYCLE
+            self.case.options = names                  # (this selects the first option ...)
+            self.case.value = keep                     # (... so the choice is put back)
+        self.redraw()
+
+    def redraw(self, _change: Any = None) -> None:
+        st = self.state
+        note = ""
+        if st.rating_error:
+            note = f"<div class='loadscope-error'>Margins not available - {html.escape(st.rating_error)}</div>"
+        elif not st.ratings_current:
+            note = "<p class='pin'>Margins of the last rated state: they follow when the controls are still.</p>"
+        if st.ratings is None:
+            self.rows = []
+            self.html.value = note
+            return
+        rows = margins_rows(st.ratings, self.case.value, st.units)
+        if self._shafts is not None:
+            rows = [r for r in rows if _component_shaft(r["component"]) in self._shafts]
+        self.rows = rows
+        lu = html.escape(label(st.units, "length"))
+        head = "".join(f"<th>{h}</th>" for h in ("component", "kind", f"at [{lu}]", "check", "value", "allowable",
+                                                 "unit", "margin", "status"))
+        body = []
+        for r in rows:
+            at = "" if r["at"] is None else number(r["at"])
+            value = "inf" if math.isinf(r["value"]) else number(r["value"])
+            allow = "inf" if math.isinf(r["allowable"]) else number(r["allowable"])
+            body.append(f"<tr class='{html.escape(r['status'])}' title='{html.escape(r['method'])}'>"
+                        f"<td>{html.escape(r['component'])}</td><td>{html.escape(r['kind'])}</td>"
+                        f"<td class='n'>{at}</td><td>{html.escape(r['check'])}</td><td class='n'>{value}</td>"
+                        f"<td class='n'>{allow}</td><td>{html.escape(r['unit'])}</td>"
+                        f"<td class='n'>{_margin_text(r['margin'])}</td><td>{html.escape(r['status'])}</td></tr>")
+        caption = html.escape(f"Margins, {self.case.value}: governing check of each component, smallest first "
+                              "(hover a row for its method)")
+        self.html.value = (note + f"<table data-table='margins'><caption>{caption}</caption><tr>{head}</tr>"
+                           f"{''.join(body)}</table><p class='caution'>Caution: {html.escape(CAUTION)}</p>")
+
+
 #: the explorer's own styles (colours from loadscope.viz.style)
 STYLE_HTML = f"""<style>
 .loadscope-explorer {{ background: {PALETTE['page']}; color: {PALETTE['ink']}; padding: 6px; }}
@@ -260,5 +370,7 @@ STYLE_HTML = f"""<style>
 .loadscope-table td {{ border-bottom: 1px solid {PALETTE['grid']}; padding: 2px 8px; }}
 .loadscope-table td.n {{ text-align: right; font-variant-numeric: tabular-nums; }}
 .loadscope-table .d {{ color: {PALETTE['reaction']}; font-size: 0.8em; margin-left: 6px; }}
+.loadscope-table tr.watch td {{ background: #FFF4DC; }}
+.loadscope-table tr.fail td {{ background: #FCE3DC; font-weight: 600; }}
 .loadscope-table .caution, .loadscope-caution {{ color: {PALETTE['faint']}; font-size: 0.85em; }}
 </style>"""

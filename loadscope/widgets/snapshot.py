@@ -10,6 +10,7 @@ the current state stays.
 
 from __future__ import annotations
 
+import html
 import re
 from collections.abc import Callable
 from pathlib import Path
@@ -129,7 +130,7 @@ class SnapshotBar(W.HBox):
             self.state.error = str(exc)
         else:
             if self.open_text(text):
-                self.status.value = f"opened {items[0].get('name', '')}"
+                self.status.value = f"opened {html.escape(str(items[0].get('name', '')))}"   # a name from the page
         finally:
             self.upload.value = ()          # drop the file from the widget state
 

@@ -1,14 +1,24 @@
 """The state of one explorer: the current drive, its solved result, the
-display units, the pinned state to compare with, and the last message.
+display units, the pinned state to compare with, the ratings, and the last
+message.
 
 Every part of an explorer observes this one object. A change goes through
 :meth:`ExplorerState.propose`: the new drive is solved once; when the drive
 or the solve raises :class:`~loadscope.InputError`, ``error`` holds the
 message and the drive, result and every figure stay as they were.
+
+Ratings (:func:`loadscope.kernel.ratings.rate`: every load case solved, every
+bearing, section, stiffness limit and bolt checked) take several solves, too
+long for every slider step. With ``rating="deferred"`` (the default) they run
+once the controls have been still for ``RATING_DELAY`` seconds (on the
+kernel's event loop; at once when no loop runs, as in a script); meanwhile
+``ratings_current`` is False and the margins on show are those of the last
+rated state. ``"sync"`` rates on every change, ``"off"`` never.
 """
 
 from __future__ import annotations
 
+import asyncio
 import logging
 from collections.abc import Callable
 from pathlib import Path
@@ -17,10 +27,15 @@ import traitlets
 
 from ..errors import InputError
 from ..kernel.model import Drive
+from ..kernel.ratings import DriveRatings, rate
 from ..kernel.solve import DriveResult, solve
 from ..spec import demo_snapshot, drive_from_snapshot, load_snapshot
 
 log = logging.getLogger(__name__)
+
+#: seconds of stillness after which a deferred rating runs
+RATING_DELAY = 0.35
+RATING_MODES = ("deferred", "sync", "off")
 
 DriveSource = Drive | dict | str | Path | None
 
@@ -66,10 +81,62 @@ class ExplorerState(traitlets.HasTraits):
     pinned = traitlets.Instance(DriveResult, allow_none=True, help="the state to compare with, or None")
     error = traitlets.Unicode("", help="message of the last rejected change; empty when it was accepted")
     topology = traitlets.Int(0, help="counts drives of another structure (imports); parts rebuild on it")
+    ratings = traitlets.Instance(DriveRatings, allow_none=True, help="ratings of the last rated drive")
+    ratings_current = traitlets.Bool(False, help="ratings are those of the current drive")
+    rating_error = traitlets.Unicode("", help="why the last rating failed; empty when it did not")
 
-    def __init__(self, source: DriveSource = None, units: str = "si") -> None:
+    def __init__(self, source: DriveSource = None, units: str = "si", rating: str = "deferred") -> None:
+        if rating not in RATING_MODES:
+            raise InputError("rating", f"unknown mode {rating!r}", ", ".join(RATING_MODES))
         drive = read_drive(source)
         super().__init__(drive=drive, result=solved(drive), units=units)
+        self.rating = rating
+        self._pending: asyncio.TimerHandle | None = None
+        if rating != "off":
+            self.rate_now()
+
+    def rate_now(self) -> None:
+        """Rate the current drive now (cancels a deferred rating)."""
+        if self._pending is not None:
+            self._pending.cancel()
+            self._pending = None
+        drive = self.drive
+        try:
+            ratings = rate(drive)
+        except InputError as exc:
+            with self.hold_trait_notifications():
+                self.ratings, self.ratings_current, self.rating_error = None, False, str(exc)
+            return
+        except Exception as exc:  # the loads stay on show; only the margins are missing
+            log.exception("rating failed")
+            with self.hold_trait_notifications():
+                self.ratings, self.ratings_current = None, False
+                self.rating_error = f"the drive could not be rated: {type(exc).__name__}: {exc}"
+            return
+        with self.hold_trait_notifications():
+            self.ratings, self.ratings_current, self.rating_error = ratings, True, ""
+
+    def _schedule_rating(self) -> None:
+        if self.rating == "off":
+            return
+        self.ratings_current = False
+        if self.rating == "sync":
+            self.rate_now()
+            return
+        try:
+            loop = asyncio.get_running_loop()
+        except RuntimeError:
+            loop = None
+        if loop is None:
+            self.rate_now()
+            return
+        if self._pending is not None:
+            self._pending.cancel()
+        self._pending = loop.call_later(RATING_DELAY, self._deferred)
+
+    def _deferred(self) -> None:
+        self._pending = None
+        self.rate_now()
 
     def propose(self, change: Drive | Callable[[Drive], Drive], *, new_topology: bool = False) -> bool:
         """Make ``change`` (a Drive, or a function of the current drive) the
@@ -92,6 +159,7 @@ class ExplorerState(traitlets.HasTraits):
             self.drive = drive
             self.result = result
             self.error = ""
+        self._schedule_rating()
         return True
 
     def open(self, source: DriveSource) -> bool:

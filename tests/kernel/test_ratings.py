@@ -94,9 +94,14 @@ def test_deep_groove_life_by_hand(ratings, drive):
     c = _one(cr.checks, "bearing", "input/A", "life")
     assert c.details["equivalent_load"] == pytest.approx(p, rel=1e-12)
     assert c.value == pytest.approx(hours, rel=1e-12)
+    assert (c.details["X"], c.details["Y"]) == ((0.56, pytest.approx(y)) if fa / fr > e else (1.0, 0.0))
     assert c.allowable == b.target_life and c.sense == "min"
     assert c.margin == pytest.approx(hours / b.target_life - 1, rel=1e-12)
     assert "ISO 281" in c.method
+    # the inverse: the rating that just reaches the target life (ISO 281 cl. 7.1 solved for C)
+    assert c.details["required_C"] == pytest.approx(p * (b.target_life * 60 * n_rpm / 1e6) ** (1 / 3), rel=1e-12)
+    duty = _one(ratings.duty, "bearing", "input/A", "life")
+    assert duty.details["required_C"] == pytest.approx(b.C * (b.target_life / duty.value) ** (1 / 3), rel=1e-12)
 
 
 def test_tapered_pair_carries_the_thrust_by_the_catalogue_method(ratings, drive):
@@ -298,3 +303,34 @@ def test_random_drives_rate_without_nan(d):
     assert duty.keys() == case.keys()
     for k in case:
         assert duty[k] == pytest.approx(case[k], rel=1e-12)
+
+
+def test_face_to_face_moves_the_thrust_to_the_other_bearing(drive, ratings):
+    # Catalogue method: in O (back-to-back) each bearing stops the shaft moving toward the other,
+    # in X (face-to-face) away from it, so the bearing B that faces the same thrust changes:
+    # Fa_B = max(Fi_B, Fi_A + Ka), Fa_A = max(Fi_A, Fi_B - Ka). In the demo the thrust of g2
+    # is faced by D in O and by C in X.
+    s1 = drive.shafts[1]
+    x = dataclasses.replace(s1, pair=dataclasses.replace(s1.pair, arrangement="face_to_face"))
+    r = rate(dataclasses.replace(drive, cases=(), shafts=(drive.shafts[0], x, drive.shafts[2])))
+    ka = next(t.axial for t in r.cases[0].result.teeth if t.gear == "g2")
+    for checks, b, a in ((ratings.case("rated").checks, "D", "C"), (r.cases[0].checks, "C", "D")):
+        fb, fa = (_one(checks, "bearing", f"intermediate/{s}", "life").details for s in (b, a))
+        assert fb["axial"] == pytest.approx(max(fb["induced_axial"], fa["induced_axial"] + ka), rel=1e-12)
+        assert fa["axial"] == pytest.approx(max(fa["induced_axial"], fb["induced_axial"] - ka), rel=1e-12)
+
+
+def test_unpaired_angular_contact_uses_the_40_degree_row(drive):
+    # ISO 281:2007 Table 3, single-row angular-contact ball bearings, alpha = 40 deg:
+    # e = 1.14; X = 0.35, Y = 0.57 for Fa/Fr > e (from memory); P = Fr below e.
+    from loadscope import Bearing
+    s0 = drive.shafts[0]
+    ac = Bearing("angular_contact", 30e3, 20000.0)
+    sup = (dataclasses.replace(s0.supports[0], bearing=ac), s0.supports[1])
+    r = rate(dataclasses.replace(drive, cases=(), shafts=(dataclasses.replace(s0, supports=sup),
+                                                          *drive.shafts[1:])))
+    c = _one(r.cases[0].checks, "bearing", "input/A", "life")
+    fr, fa = c.details["radial"], c.details["axial"]
+    p = 0.35 * fr + 0.57 * fa if fa / fr > 1.14 else fr
+    assert c.details["equivalent_load"] == pytest.approx(p, rel=1e-12)
+    assert c.details["L10"] == pytest.approx((30e3 / p) ** 3, rel=1e-12)

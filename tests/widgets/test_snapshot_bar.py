@@ -6,7 +6,7 @@ import datetime
 import json
 
 import pytest
-from conftest import demo_with, solve_snapshot
+from widget_drives import demo_with, solve_snapshot
 
 from loadscope.report import tables
 from loadscope.spec import dump_snapshot
@@ -85,6 +85,18 @@ def test_import_of_another_drive_rebuilds_the_explorer(recorded):
     assert "shafts[2].pulleys[0].at" not in ex.panel.controls
     kinds = {c["kind"] for c in rec.custom()}
     assert "figure" in kinds                                     # another structure: whole figures
+
+
+def test_import_with_other_shaft_names_keeps_every_view_valid(recorded):
+    ex, rec = recorded
+    snap = demo_with(lambda s: (s["shafts"][2].update(id="head"), s["outputs"][0].update(shaft="head")))
+    assert ex.diagrams.shaft.value == "output"
+    _upload(ex, "<img src=x onerror=alert(1)>.json", json.dumps(snap).encode())
+    assert ex.state.error == ""
+    assert ex.diagrams.shaft.value in ("input", "intermediate", "head")
+    assert "head" in ex.diagrams.shaft.options and "output" not in ex.diagrams.shaft.options
+    assert "shaft head" in ex.table.value or ">head<" in ex.table.value
+    assert "<img" not in ex.snapshot.status.value and "&lt;img" in ex.snapshot.status.value
 
 
 def test_pin_shows_each_change_beside_its_load(recorded):

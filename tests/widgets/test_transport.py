@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import numpy as np
 import pytest
-from conftest import demo_with, solve_snapshot
+from widget_drives import demo_with, solve_snapshot
 
 from loadscope.viz import figure_update, reaction_bars, shaft_diagrams
 from loadscope.widgets import PlotView, apply_update
