@@ -94,6 +94,12 @@ class Server:
                 raise RuntimeError(f"loadscope serve did not start:\n{self.log.read_text()}")
             time.sleep(0.1)
 
+    def log_tail(self, chars: int = 3000) -> str:
+        """The end of the server's log, without Voila's routine warnings."""
+        noise = ("is not trusted", "websocket_ping", "Setting websocket_ping")
+        lines = [ln for ln in self.log.read_text().splitlines() if not any(n in ln for n in noise)]
+        return "\n".join(lines)[-chars:]
+
     def page_url(self, name: str) -> str:
         return f"{self.url}voila/render/{name}.ipynb"
 

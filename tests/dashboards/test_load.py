@@ -1,0 +1,107 @@
+"""Many pages at once, and many fresh loads.
+
+* Eight pages open together (of the shaft dashboard, the lightest for the
+  software-rendering browser): all render, each follows only its own
+  sliders, and once closed their kernels stop (the page's shutdown beacon,
+  not idle culling, which would take minutes).
+* Every figure stays live: over ten fresh loads of each dashboard, every
+  figure on the page updates after a slider move (a figure view that missed
+  its start-up window would stay on its first revision).
+"""
+
+from __future__ import annotations
+
+import time
+import urllib.error
+import urllib.request
+
+import pytest
+from dashboard_harness import DASHBOARDS, Dashboard
+
+pytestmark = pytest.mark.browser
+
+SLIDER = "input power"
+
+
+def _open_many(context, server, name, count):
+    pages = [context.new_page() for _ in range(count)]
+    for page in pages:                          # navigate all first: the server renders them together
+        page.goto(server.page_url(name), wait_until="commit")
+    boards = [Dashboard(page, name) for page in pages]
+    stuck = []
+    for i, board in enumerate(boards):
+        try:
+            # generous: on a busy 2-core machine eight software-rendered pages take a while;
+            # a dead figure stays at revision -1 for good
+            board.wait_ready(timeout=240_000)
+        except Exception:
+            stuck.append((i, board.revs(), board.figure_errors()))
+    assert stuck == [], (f"pages that did not finish rendering: (page, revisions, errors) {stuck}\n"
+                         f"server log:\n{server.log_tail()}")
+    return boards
+
+
+def _kernel_status(server, kernel_id):
+    """HTTP status of the kernel's model: 200 while it runs, 404 once it is gone."""
+    try:
+        with urllib.request.urlopen(f"{server.url}api/kernels/{kernel_id}", timeout=10) as r:
+            return r.status
+    except urllib.error.HTTPError as e:
+        return e.code
+
+
+def test_eight_pages_render_stay_independent_and_free_their_kernels(server, browser):
+    server.warm()
+    baseline = len(server.kernels())
+    context = browser.new_context(viewport={"width": 1000, "height": 700})
+    try:
+        boards = _open_many(context, server, "shaft", 8)
+        ids = [b.kernel_id() for b in boards]
+        assert len(set(ids)) == 8, "one kernel per page"
+        assert len(server.kernels()) >= baseline + 7   # the warm kernel served one page at most
+
+        tables = [b.table_text() for b in boards]
+        readouts = [b.readout(SLIDER) for b in boards]
+        revs = [b.revs() for b in boards]
+        moved = boards[3]
+        moved.move_slider(SLIDER, 3)
+        moved.wait_revs_above(revs[3])
+        assert moved.wait_table_change(tables[3]) != tables[3]
+        for i, board in enumerate(boards):
+            if board is not moved:
+                assert board.table_text() == tables[i]
+                assert board.readout(SLIDER) == readouts[i]
+                assert board.revs() == revs[i]
+
+        for board in boards:
+            board.close()
+        # the beacon stops each page's kernel within seconds (idle culling would take minutes)
+        deadline = time.monotonic() + 60
+        while (alive := [k for k in ids if _kernel_status(server, k) != 404]) and time.monotonic() < deadline:
+            time.sleep(0.5)
+        assert alive == [], f"kernels still running after their pages closed: {alive}"
+        # and their processes are gone: what runs now is at most the refilled warm pool
+        assert server.wait_kernels(baseline, timeout=30) <= baseline
+    finally:
+        context.close()
+
+
+@pytest.mark.parametrize("name", DASHBOARDS)
+def test_every_figure_stays_live_over_ten_fresh_loads(name, server, browser):
+    dead = []
+    for batch in range(2):                      # ten loads, five pages at a time
+        context = browser.new_context(viewport={"width": 1000, "height": 700})
+        try:
+            boards = _open_many(context, server, name, 5)
+            for i, board in enumerate(boards):
+                before = board.revs()
+                board.move_slider(SLIDER, 1 + i % 3)
+                try:
+                    board.wait_revs_above(before, timeout=30_000)
+                except Exception:
+                    dead.append((batch * 5 + i, before, board.revs()))
+        finally:
+            for page in context.pages:
+                page.close(run_before_unload=True)
+            context.close()
+    assert dead == [], f"figures that did not update: (load, before, after) {dead}"
