@@ -30,6 +30,7 @@ import numpy as np
 
 from ..errors import InputError
 from . import sections as sec
+from . import shaftsize as size
 from .model import Shaft
 from .ratingcheck import RatingCheck
 from .ratingdata import Feature, Material
@@ -173,16 +174,21 @@ def section_checks(case: str, result: DriveResult) -> list[RatingCheck]:
         where = shaft.path or shaft.id
         se = sec.marin_endurance_limit(mat.Sut, mat.finish, dia, "bending", mat.temperature, mat.reliability,
                                        mat.Se_prime, path=mpath)
-        nf = np.atleast_1d(sec.shaft_fatigue_factor(dia, ma, tm, kf, kfs, se.se, mat.Sut, mat.Sy, mat.criterion,
-                                                    ta=ta, fm=fm, bore=bore, path=where))
-        ny = np.atleast_1d(sec.shaft_yield_factor(dia, ma, tm, kf, kfs, mat.Sy, ta=ta, fm=fm, bore=bore, path=where))
         st = sec.shaft_stresses(dia, ma, tm, kf, kfs, ta=ta, fm=fm, bore=bore, path=where)
+        nf = np.atleast_1d(sec.fatigue_safety_factor(st.alternating, st.midrange, se.se, mat.Sut, mat.Sy,
+                                                     mat.criterion, path=where))
+        with np.errstate(divide="ignore"):
+            ny = np.where(st.maximum > 0.0, mat.Sy / np.where(st.maximum > 0.0, st.maximum, 1.0), np.inf)
+        # The inverse, one call per shaft: the diameters that just reach the required factor.
+        need = size.section_minimum_diameters(mat.required_factor, ma, tm, kf, kfs, se.se / se.kb, mat.Sut, mat.Sy,
+                                              mat.criterion, ta=ta, fm=fm, bore_ratio=bore / dia, path=where)
         cols = {"diameter": dia, "bore": bore, "M": ma, "T": tm, "N": n_axial, "Kf": kf, "Kfs": kfs,
                 "bending_stress": sec.bending_stress(ma, dia, bore),
                 "torsion_stress": sec.torsion_stress(tm, dia, bore),
                 "axial_stress": sec.axial_stress(n_axial, dia, bore), "von_mises_max": st.maximum,
                 "alternating_vm": st.alternating, "midrange_vm": st.midrange, "Se": se.se, "ka": se.ka, "kb": se.kb,
-                "kd": se.kd, "ke": se.ke, "fatigue_factor": nf, "yield_factor": ny}
+                "kd": se.kd, "ke": se.ke, "fatigue_factor": nf, "yield_factor": ny,
+                "d_min_fatigue": need.fatigue, "d_min_yield": need.yield_, "d_min": need.governing}
         table = {k: np.broadcast_to(np.asarray(v, dtype=float), dia.shape) for k, v in cols.items()}
         for j, (label, x, _, _, note, path) in enumerate(crits):
             det = {k: float(v[j]) for k, v in table.items()}
