@@ -16,6 +16,7 @@ from __future__ import annotations
 import argparse
 import json
 import sys
+import warnings
 from pathlib import Path
 
 from . import CAUTION
@@ -102,9 +103,18 @@ def main(argv: list[str] | None = None) -> int:
                     raise InputError("FILE", f"no such file: {args.file}", "a readable snapshot file")
                 source = path
             drive = spec.load_snapshot(source)  # type: ignore[arg-type]
-            _emit(_solve_and_format(drive, args.format, args.units), args.out)
+            with warnings.catch_warnings():
+                # a value that overflows or loses meaning in the solve stops it here, never a NaN in the output
+                warnings.simplefilter("error", RuntimeWarning)
+                text = _solve_and_format(drive, args.format, args.units)
+            _emit(text, args.out)
     except InputError as exc:
         print(f"loadscope: input error: {exc}", file=sys.stderr)
+        return EXIT_INPUT
+    except (ArithmeticError, RuntimeWarning, RecursionError) as exc:
+        print(f"loadscope: input error: the solve ran out of the range of numbers ({exc}): some value of the "
+              "drive is far from any real drive's scale (accepted: sizes, loads, speeds and moduli of a real "
+              "drive)", file=sys.stderr)
         return EXIT_INPUT
     except ImportError as exc:  # an optional package a format needs (html: plotly)
         print(f"loadscope: {exc}", file=sys.stderr)

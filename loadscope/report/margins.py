@@ -92,7 +92,8 @@ def _json_number(x: float) -> float | str:
 
 
 def ratings_to_dict(ratings: DriveRatings, units: str = "si", loads: bool = False) -> dict[str, Any]:
-    """The ratings as JSON-ready data: the caution, the watch band, each
+    """The ratings as JSON-ready data: the caution, the watch band, the
+    display units of ``at`` and of each case's power, torque and speed, each
     load case (its inputs and its margins; with ``loads`` also every load of
     the case, as :func:`~loadscope.report.result_to_dict` gives them) and the
     duty cycle. Infinite margins (unloaded parts) are written as the string
@@ -120,22 +121,37 @@ def ratings_to_dict(ratings: DriveRatings, units: str = "si", loads: bool = Fals
         if loads:
             doc = result_to_dict(cr.result, units)
             cases[-1]["loads"] = {k: v for k, v in doc.items() if k not in ("format", "version", "caution")}
-    return {"caution": CAUTION, "watch_band": WATCH_BAND,
+    shown = {"at": label(units, "length"), "power": label(units, "power"), "torque": label(units, "moment"),
+             "speed": label(units, "speed")}
+    return {"caution": CAUTION, "watch_band": WATCH_BAND, "units": shown,
             "details_si": "intermediate numbers in SI units (N, m, Pa, rad/s, rad; lives in h, or 10^6 rev for "
                           "L10 and Lnm)",
-            "margin": "allowable/value - 1 for limits not to exceed, value/allowable - 1 for values to reach",
+            "margin": "allowable/value - 1 for limits not to exceed, value/allowable - 1 for values to reach; "
+                      "\"inf\" (margin, and the value of a factor or life) marks a part that carries no load",
             "cases": cases, "duty_cycle": {"name": DUTY_CYCLE, "margins": rows(DUTY_CYCLE)}}
 
 
+def _number(v: float) -> str:
+    """Four significant digits, grouped and without an exponent from 0.001
+    up to 10 million (a life reads 21,290 h, not 2.129e+04 h)."""
+    if v == 0.0:
+        return "0"
+    mag = math.floor(math.log10(abs(v)))
+    if not -3 <= mag < 7:
+        return f"{v:.4g}"
+    text = f"{v:,.{max(0, 3 - mag)}f}"
+    return text.rstrip("0").rstrip(".") if "." in text else text
+
+
 def _cell(v: Any, col: str) -> str:
+    # An infinite margin means the part carries no load here (a shaft end beyond the last element, a
+    # section with no moment or torque): say so in words rather than print "inf".
     if v is None:
         return ""
     if col == "margin":
-        return "inf" if math.isinf(v) else "> +999 %" if v > 9.99 else f"{v * 100:+.1f} %"
+        return "unloaded" if math.isinf(v) else "> +999 %" if v > 9.99 else f"{v * 100:+.1f} %"
     if isinstance(v, float):
-        if math.isinf(v):
-            return "inf"
-        return f"{v:,.4g}"
+        return "no load" if math.isinf(v) else _number(v)
     return str(v)
 
 
@@ -149,7 +165,12 @@ def margins_text(ratings: DriveRatings, units: str = "si") -> str:
     for cr in ratings.cases:
         c = cr.case
         sp = convert(cr.result.drive.speed, units, "speed")
-        what = f"{c.share:.0%} of the time, input speed {sp:,.4g} {label(units, 'speed')}"
+        what = f"{c.share:.0%} of the time"
+        if c.power is not None:
+            what += f", power {_number(convert(c.power, units, 'power'))} {label(units, 'power')}"
+        elif c.torque is not None:
+            what += f", torque {_number(convert(c.torque, units, 'moment'))} {label(units, 'moment')}"
+        what += f", input speed {_number(sp)} {label(units, 'speed')}"
         parts += ["", f"Load case {c.name!r} ({what})", _table(heads, margins_rows(ratings, c.name, units), cols)]
     parts += ["", "Duty cycle (bearing life by Palmgren-Miner over the cases; other parts at their worst case)",
               _table(heads, margins_rows(ratings, DUTY_CYCLE, units), cols)]

@@ -12,14 +12,28 @@ from typing import Annotated, Any
 
 from pydantic import BaseModel, BeforeValidator, ConfigDict, Field, PlainSerializer, StringConstraints, WithJsonSchema
 
+from ..errors import InputError
 from .units import DIMENSIONS, format_quantity, parse_quantity
+
+#: Largest magnitude a snapshot value may have, in its SI unit (1e12 m, N, W, Pa = 1000 GPa, ...): far
+#: above every real drive, and low enough that the squares and products of the solve stay finite.
+MAX_MAGNITUDE = 1e12
+
+
+def _read(value: Any, dimension: str) -> float:
+    v = parse_quantity(value, dimension, "")
+    if abs(v) > MAX_MAGNITUDE:
+        si = DIMENSIONS[dimension].si
+        raise InputError("", f"is beyond the scale of any drive, got {value!r}",
+                         f"a magnitude up to {MAX_MAGNITUDE:g} {si}".rstrip())
+    return v
 
 
 def _quantity_type(dimension: str) -> Any:
     dim = DIMENSIONS[dimension]
 
     def read(value: Any) -> float:
-        return parse_quantity(value, dimension, "")
+        return _read(value, dimension)
 
     def write(value: Any) -> str:
         # A default still in its text form (schema generation) stays as written.
@@ -32,7 +46,7 @@ def _quantity_type(dimension: str) -> Any:
 
 
 def _read_number(value: Any) -> float:
-    return parse_quantity(value, "dimensionless", "")
+    return _read(value, "dimensionless")
 
 
 def _read_ratio(value: Any) -> float:
@@ -40,7 +54,7 @@ def _read_ratio(value: Any) -> float:
         return math.inf
     if isinstance(value, float) and value == math.inf:
         return value
-    return parse_quantity(value, "dimensionless", "")
+    return _read(value, "dimensionless")
 
 
 def _write_ratio(value: Any) -> float | str:

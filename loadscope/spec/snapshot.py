@@ -530,6 +530,13 @@ def load_snapshot(source: str | Path | dict) -> Drive:
     except json.JSONDecodeError as exc:
         raise InputError("", f"{where} is not valid JSON: {exc.msg} at line {exc.lineno}, column {exc.colno}",
                          "a JSON object") from None
+    except RecursionError:
+        raise InputError("", f"{where} nests lists or objects too deeply to read",
+                         "a snapshot's few levels of nesting") from None
+    except InputError:
+        raise
+    except ValueError as exc:       # an integer beyond Python's digit limit for int()
+        raise InputError("", f"{where} is not a readable snapshot: {exc}", "numbers of a sensible size") from None
     return drive_from_snapshot(data)
 
 

@@ -15,7 +15,6 @@ from collections.abc import Callable
 import ipywidgets as W
 from ipywidgets.widgets.widget_description import DescriptionStyle
 
-from ..kernel.model import Drive
 from ..report.units import system
 from .params import Param, drive_params
 from .state import ExplorerState
@@ -113,59 +112,82 @@ class ParamControl:
 
 class ParameterPanel(W.VBox):
     """Controls for every adjustable number of the state's drive, grouped in
-    an accordion (drive, meshes, shafts, housing). ``groups`` keeps only the
-    groups for which it returns True (the smaller explorers use it)."""
+    an accordion (drive, meshes, shafts, housing, load cases). ``groups``
+    keeps only the groups for which it returns True (the smaller explorers
+    use it).
+
+    A group's controls are made when its section is first opened (or when
+    code asks for them through :attr:`controls`, :meth:`set_value` or
+    :meth:`value`): a page then starts with a handful of widget models, not
+    one per number of the drive."""
 
     def __init__(self, state: ExplorerState, groups: Callable[[str], bool] | None = None) -> None:
         super().__init__(layout=W.Layout(width="420px"))
         self.add_class("loadscope-panel")
         self.state = state
         self._keep = groups or (lambda g: True)
-        self.controls: dict[str, ParamControl] = {}
+        self._built: dict[str, ParamControl] = {}
+        # one layout and style of each kind, shared by every control: a few models in the page, not hundreds
+        self._looks = {"slider": W.Layout(width="390px"), "box": W.Layout(width="300px"),
+                       "slider_style": W.SliderStyle(description_width="190px"),
+                       "box_style": DescriptionStyle(description_width="190px")}
         self._build()
         state.observe(self._rebuild, "topology")
         state.observe(self._refresh_all, "units")
         state.observe(self._follow, "drive")
 
+    @property
+    def controls(self) -> dict[str, ParamControl]:
+        """Every control, by field path (makes those not made yet)."""
+        for g in self._groups:
+            self._open_group(g)
+        return dict(self._built)
+
     def _build(self) -> None:
         params = [p for p in drive_params(self.state.drive, self.state.result) if self._keep(p.group)]
-        # one layout and style of each kind, shared by every control: a few models in the page, not hundreds
-        looks = self._looks = getattr(self, "_looks", None) or {
-            "slider": W.Layout(width="390px"), "box": W.Layout(width="300px"),
-            "slider_style": W.SliderStyle(description_width="190px"),
-            "box_style": DescriptionStyle(description_width="190px")}
-        self.controls = {p.key: ParamControl(p, self.state, self._propose, looks) for p in params}
-        groups: dict[str, list[W.Widget]] = {}
-        notes: dict[str, list[str]] = {}
+        self._groups: dict[str, list[Param]] = {}
         for p in params:
-            groups.setdefault(p.group, []).append(self.controls[p.key].input)
-            if p.note:      # ids in labels come from the snapshot: escaped
-                notes.setdefault(p.group, []).append(html.escape(f"{p.label}: {p.note}"))
-        boxes = []
-        for g, items in groups.items():
-            note = W.HTML("<div class='loadscope-note'>" + "<br>".join(notes.get(g, [])) + "</div>")
-            boxes.append(W.VBox([*items, note]))
-        acc = W.Accordion(children=boxes, titles=tuple(groups), selected_index=0 if boxes else None)
-        self.children = [acc]
+            self._groups.setdefault(p.group, []).append(p)
+        self._group_of = {p.key: p.group for p in params}
+        self._boxes = {g: W.VBox() for g in self._groups}
+        self._built = {}
+        self._acc = W.Accordion(children=list(self._boxes.values()), titles=tuple(self._groups))
+        self._acc.observe(self._opened, "selected_index")
+        self._acc.selected_index = 0 if self._groups else None
+        self.children = [self._acc]
+
+    def _opened(self, change: dict) -> None:
+        if change["new"] is not None:
+            self._open_group(list(self._groups)[change["new"]])
+
+    def _open_group(self, group: str) -> None:
+        box = self._boxes[group]
+        if box.children:
+            return
+        params = self._groups[group]
+        made = [ParamControl(p, self.state, self._propose, self._looks) for p in params]
+        self._built.update({c.param.key: c for c in made})
+        notes = [html.escape(f"{p.label}: {p.note}") for p in params if p.note]   # ids come from the snapshot
+        box.children = [*(c.input for c in made), W.HTML("<div class='loadscope-note'>" + "<br>".join(notes)
+                                                          + "</div>")]
 
     def _rebuild(self, _change: dict) -> None:
         # close the old controls' models, or every import would leave them open in the kernel and page
-        old = list(self.children)
+        old_acc, old_boxes = self._acc, list(self._boxes.values())
         self._build()
-        for acc in old:
-            for box in acc.children:
-                for w in box.children:
-                    w.close()
-                box.close()
-            acc.close()
+        for box in old_boxes:
+            for w in box.children:
+                w.close()
+            box.close()
+        old_acc.close()
 
     def _refresh_all(self, _change: dict) -> None:
-        for c in self.controls.values():
+        for c in self._built.values():
             c.refresh()
 
     def _follow(self, _change: dict) -> None:
         # Only controls whose value the change moved (e.g. a drive set from code).
-        for c in self.controls.values():
+        for c in self._built.values():
             _, factor = unit_of(self.state.units, c.param.kind)
             now = c.param.get(self.state.drive) / factor
             if not math.isclose(now, c.input.value, rel_tol=1e-12, abs_tol=1e-15):
@@ -174,17 +196,19 @@ class ParameterPanel(W.VBox):
     def _propose(self, param: Param, value: float) -> None:
         ok = self.state.propose(lambda d: param.set(d, value))
         if not ok:
-            self.controls[param.key].refresh()
+            self._built[param.key].refresh()
+
+    def control(self, key: str) -> ParamControl:
+        """The control of one field path (made if need be)."""
+        if key not in self._group_of:
+            raise KeyError(key)
+        self._open_group(self._group_of[key])
+        return self._built[key]
 
     def set_value(self, key: str, value: float) -> None:
         """Set a control as a person would, in display units."""
-        self.controls[key].input.value = value
+        self.control(key).input.value = value
 
     def value(self, key: str) -> float:
         """A control's value in display units."""
-        return float(self.controls[key].input.value)
-
-
-def param_value(drive: Drive, params: list[Param], key: str) -> float:
-    """The SI value of one parameter of ``drive``."""
-    return next(p for p in params if p.key == key).get(drive)
+        return float(self.control(key).input.value)

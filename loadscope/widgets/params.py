@@ -177,7 +177,12 @@ def _mesh_params(drive: Drive, result: DriveResult) -> list[Param]:
             internal = ga.internal or _gear(drive, b_id).internal
             r_a, r_b = geo.radius
             centre = abs(r_a - r_b) if internal else r_a + r_b
-            lo, hi = (0.1 * centre, 3.0 * centre) if internal else (0.1 * centre, 0.9 * centre)
+            if not internal:
+                lo, hi = 0.1 * centre, 0.9 * centre
+            elif ga.internal:                       # the ring itself: it must stay larger than the distance
+                lo, hi = 1.1 * centre, 4.0 * centre
+            else:
+                lo, hi = 0.1 * centre, 3.0 * centre
             out.append(Param(f"meshes[{m_i}].pitch_radius", group, f"pitch radius of {a_id}", "length", lo, hi,
                              "slider", lambda d, g=a_id: _gear(d, g).pitch_radius,
                              _radius_setter(a_id, b_id, centre, internal),

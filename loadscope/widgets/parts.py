@@ -134,9 +134,11 @@ class ReactionView(W.VBox):
     def _spec(self) -> dict[str, Any]:
         st = self.state
         if self.bars.value == "cases":
-            self.note.value = ("" if st.ratings_current else
-                               "<span class='loadscope-note'>load cases: updating when the controls are still"
-                               "</span>")
+            if st.rating == "off":
+                text = "load cases are solved with the margins, which this explorer does not work out"
+            else:
+                text = "" if st.ratings_current else "load cases: updating when the controls are still"
+            self.note.value = f"<span class='loadscope-note'>{text}</span>" if text else ""
         else:
             self.note.value = ""
         return reaction_bars(st.result, st.units, self.parts.value, self.cases())

@@ -10,6 +10,9 @@
 // The element carries data-rev = the revision on screen (browser tests wait on it).
 
 const KEY = "__loadscopePlotly";
+const PLOTLY_WAIT_MS = 15000; // how long one request for the bundle may take
+const RETRY_MS = 3000; // pause before a view tries to draw again after a failure
+const RETRIES = 5;
 
 function injectScript(src, revoke) {
   return new Promise((resolve, reject) => {
@@ -42,8 +45,15 @@ function loadPlotly(model) {
     promise = injectScript(new URL(url, document.baseURI).href, false);
   } else {
     promise = new Promise((resolve, reject) => {
+      // The kernel answers one request per view every few seconds; a reply that does not come
+      // (another tab asked just before) fails this attempt, and the view asks again later.
+      const timer = setTimeout(() => {
+        model.off("msg:custom", onMsg);
+        reject(new Error("no plotly.js from the kernel yet"));
+      }, PLOTLY_WAIT_MS);
       const onMsg = (msg, buffers) => {
         if (!msg || msg.kind !== "plotly") return;
+        clearTimeout(timer);
         model.off("msg:custom", onMsg);
         if (!buffers || !buffers.length) {
           reject(new Error("plotly.js bundle missing from the reply"));
@@ -102,6 +112,7 @@ function render({ model, el }) {
   let asked = false; // a need_figure request is open
   let drawing = Promise.resolve();
   let alive = true;
+  let failures = 0;
 
   const ask = () => {
     if (!asked) {
@@ -118,6 +129,8 @@ function render({ model, el }) {
       .then((Plotly) => {
         if (!alive || fig !== spec || rev !== shown) return; // a newer state follows
         return Plotly.react(div, fig.data, fig.layout, { responsive: true, displaylogo: false }).then(() => {
+          failures = 0;
+          delete el.dataset.error;
           el.dataset.rev = String(rev);
           el.dataset.figure = (fig.layout.meta && fig.layout.meta.figure) || "";
         });
@@ -125,6 +138,7 @@ function render({ model, el }) {
       .catch((err) => {
         el.dataset.error = String(err && err.message ? err.message : err);
         console.error("loadscope PlotView:", err);
+        if (alive && ++failures <= RETRIES) setTimeout(() => alive && rev === shown && draw(), RETRY_MS);
       });
   };
 

@@ -105,6 +105,24 @@ def test_pitch_radius_slider_keeps_the_centre_distance(recorded):
     assert abs(speed) == pytest.approx(1460 * 30 / 87, rel=1e-9)
 
 
+def test_pitch_radius_of_a_pinion_in_a_ring_keeps_the_centre_distance():
+    def ring(s):            # stage 2 as an internal pair: 166.5 - 28.5 = 138 mm, the shafts' distance
+        s["shafts"][2]["gears"][0].update(internal=True, pitch_radius="166.5 mm", teeth=111)
+    with capture_comms():
+        ex = DriveExplorer(demo_with(ring), rating="off")
+    ex.panel.set_value("meshes[1].pitch_radius", 30.0)           # mm, the pinion p3; the ring follows
+    assert ex.state.error == ""
+    g = {gr.id: gr for sh in ex.state.drive.shafts for gr in sh.gears}
+    assert g["g4"].pitch_radius - g["p3"].pitch_radius == pytest.approx(0.138, rel=1e-12)
+
+    def edit(s):
+        ring(s)
+        for shaft, k, r in ((1, 1, "30 mm"), (2, 0, "168 mm")):
+            s["shafts"][shaft]["gears"][k]["pitch_radius"] = r
+            del s["shafts"][shaft]["gears"][k]["teeth"]
+    _same_tables(ex, solve_snapshot(demo_with(edit)))
+
+
 def test_bad_value_shows_the_message_and_keeps_the_state(recorded):
     ex, rec = recorded
     drive, result = ex.state.drive, ex.state.result
@@ -144,15 +162,18 @@ def test_page_round_off_of_a_value_is_not_a_move(recorded):
 
 
 def test_units_toggle_changes_labels_and_converts_values(recorded):
-    ex, rec = recorded
+    ex, rec0 = recorded
     si_table = ex.table.frames["reactions"].copy()
+    with capture_comms() as rec:                                 # controls are made when their group opens
+        controls = ex.panel.controls                             # every group opened
     rec.clear()
+    rec0.clear()
     ex.units.value = "us"
     # each control's new bounds and value reach the page in one message (else the page clamps the value)
-    for key, ctl in ex.panel.controls.items():
+    for key, ctl in controls.items():
         if unit_of("si", ctl.param.kind) == unit_of("us", ctl.param.kind):
             continue                                             # rpm, deg, plain numbers: nothing to send
-        sent = [m.data["state"] for m in rec.messages
+        sent = [m.data["state"] for m in rec0.messages + rec.messages
                 if m.comm_id == ctl.input.comm.comm_id and m.data.get("method") == "update"]
         assert len(sent) == 1 and {"value", "max", "description"} <= set(sent[0]), key
     assert ex.state.units == "us"
@@ -200,6 +221,8 @@ def test_explorers_open_the_demo_and_any_snapshot(tmp_path):
 
 def test_panel_offers_the_trade_inputs_with_units_and_ranges(recorded):
     ex, _ = recorded
+    # only the open group's controls exist in the page at first
+    assert set(ex.panel._built) == {"input.speed", "input.power"}
     keys = set(ex.panel.controls)
     assert {"input.speed", "input.power", "meshes[0].pressure_angle", "meshes[0].helix_angle",
             "meshes[0].pitch_radius", "meshes[1].pitch_radius", "shafts[0].supports[0].at"} <= keys

@@ -1,0 +1,72 @@
+"""``loadscope serve`` itself: its options are checked before anything
+starts, it listens on loopback only, and plotly.js is a static file the
+browser caches (the page loads it from there, not over the websocket)."""
+
+from __future__ import annotations
+
+import json
+import urllib.request
+
+import psutil
+import pytest
+from dashboard_harness import Dashboard
+
+from loadscope import cli, spec
+from loadscope.serving import SNAPSHOT_ENV, startup_snapshot
+
+
+@pytest.mark.parametrize("argv, field", [
+    (["serve", "--port", "70000"], "--port"),
+    (["serve", "--pool", "-1"], "--pool"),
+    (["serve", "--base-url", "loadscope"], "--base-url"),
+    (["serve", "--snapshot", "no-such-file.json"], "--snapshot"),
+])
+def test_bad_option_is_reported_before_the_server_starts(argv, field, capsys):
+    assert cli.main(argv + ["--no-browser"]) == cli.EXIT_INPUT
+    err = capsys.readouterr().err
+    assert err.startswith(f"loadscope: input error: {field}")
+    assert "Traceback" not in err
+
+
+def test_broken_snapshot_is_reported_before_the_server_starts(tmp_path, capsys):
+    snap = spec.demo_snapshot()
+    snap["input"]["speed"] = "-5 furlongs"
+    bad = tmp_path / "bad.json"
+    bad.write_text(json.dumps(snap))
+    assert cli.main(["serve", "--snapshot", str(bad), "--no-browser"]) == cli.EXIT_INPUT
+    assert "input.speed" in capsys.readouterr().err
+
+
+def test_startup_snapshot_comes_from_the_environment(monkeypatch):
+    monkeypatch.delenv(SNAPSHOT_ENV, raising=False)
+    assert startup_snapshot() is None
+    monkeypatch.setenv(SNAPSHOT_ENV, "/srv/drives/a.json")
+    assert startup_snapshot() == "/srv/drives/a.json"
+
+
+def test_server_listens_on_loopback_only(server):
+    listening = [c.laddr for c in psutil.Process(server.proc.pid).net_connections(kind="inet")
+                 if c.status == psutil.CONN_LISTEN]
+    assert listening and all(addr.ip == "127.0.0.1" for addr in listening), listening
+    assert server.port in {addr.port for addr in listening}
+
+
+def test_plotly_js_is_a_static_file_cached_for_good(server):
+    req = urllib.request.Request(server.url + "loadscope/static/plotly.min.js?v=1", method="HEAD")
+    with urllib.request.urlopen(req, timeout=30) as r:
+        assert r.status == 200
+        assert "immutable" in r.headers["Cache-Control"] and "max-age=31536000" in r.headers["Cache-Control"]
+        assert "javascript" in r.headers["Content-Type"]
+
+
+@pytest.mark.browser
+def test_page_loads_plotly_from_the_static_route(server, browser):
+    context = browser.new_context(viewport={"width": 1000, "height": 700})
+    try:
+        board = Dashboard.open(context, server, "shaft")
+        urls = board.page.evaluate("() => performance.getEntriesByType('resource').map(e => e.name)")
+        assert [u for u in urls if "/loadscope/static/plotly.min.js?v=" in u]
+        assert not [u for u in urls if "jupyterlab-plotly" in u]    # plotly's own lab extension stays out
+        board.close()
+    finally:
+        context.close()
