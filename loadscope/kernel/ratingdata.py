@@ -142,8 +142,10 @@ class Bearing:
         if self.y0 is not None:
             checks.within(self.y0, *Y_RANGE, f"{p}.y0")
         if self.required_s0 is not None:
-            checks.positive(self.required_s0, f"{p}.required_s0")
-            checks.within(self.required_s0, *S0_RANGE, f"{p}.required_s0")
+            v = checks.finite(self.required_s0, f"{p}.required_s0")
+            if not S0_RANGE[0] < v <= S0_RANGE[1]:
+                raise InputError(f"{p}.required_s0", f"a static safety factor to reach must be above 0, got {v:g}"
+                                 if v <= 0.0 else f"is out of range, got {v:g}", "0 < required_s0 <= 10")
         if self.C0 is not None and (self.x0 is None or self.y0 is None):
             self._static_table_covers(p)
         if self.C0 is not None and self.C0 > 20.0 * self.C:
