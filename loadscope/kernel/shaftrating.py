@@ -23,6 +23,7 @@ is one.
 
 from __future__ import annotations
 
+import functools
 import math
 from typing import Any
 
@@ -86,6 +87,7 @@ def _steps(shaft: Shaft) -> list[float]:
     return out
 
 
+@functools.lru_cache(maxsize=256)        # the same notch in every load case: found once
 def _feature_factors(f: Feature, mat: Material, path: str) -> tuple[float, float, str]:
     if f.Kf is not None and f.Kfs is not None:
         return f.Kf, f.Kfs, f"{f.kind}, Kf {f.Kf:g}, Kfs {f.Kfs:g} (given)"
@@ -123,6 +125,12 @@ def _critical(shaft: Shaft, sr: ShaftResult, mat: Material) -> list[tuple[str, f
     if not any(abs(x_peak - c[1]) <= 1e-6 for c in out):
         out.append(("peak M", x_peak, 1.0, 1.0, "plain section at the peak resultant moment", p))
     return out
+
+
+@functools.lru_cache(maxsize=256)        # the same sections in every load case: found once
+def _endurance(mat: Material, diameters: tuple[float, ...], path: str) -> sec.EnduranceLimit:
+    return sec.marin_endurance_limit(mat.Sut, mat.finish, np.array(diameters), "bending", mat.temperature,
+                                     mat.reliability, mat.Se_prime, path=path)
 
 
 def _clean(value: float, scale: float) -> float:
@@ -172,8 +180,7 @@ def section_checks(case: str, result: DriveResult) -> list[RatingCheck]:
         kf = np.array([c[2] for c in crits])
         kfs = np.array([c[3] for c in crits])
         where = shaft.path or shaft.id
-        se = sec.marin_endurance_limit(mat.Sut, mat.finish, dia, "bending", mat.temperature, mat.reliability,
-                                       mat.Se_prime, path=mpath)
+        se = _endurance(mat, tuple(dia.tolist()), mpath)
         st = sec.shaft_stresses(dia, ma, tm, kf, kfs, ta=ta, fm=fm, bore=bore, path=where)
         nf = np.atleast_1d(sec.fatigue_safety_factor(st.alternating, st.midrange, se.se, mat.Sut, mat.Sy,
                                                      mat.criterion, path=where))

@@ -55,12 +55,17 @@ class _Loads:
     ta: FloatArray
     tm: FloatArray
 
-    def von_mises(self, d: FloatArray) -> tuple[FloatArray, FloatArray, FloatArray]:
+    def alternating_midrange(self, d: FloatArray) -> tuple[FloatArray, FloatArray]:
+        """sigma_a', sigma_m' [Pa] at diameter d [m]."""
         d3 = d**3
-        sa, sm = self.sa / d3, self.sm_b / d3 + self.sm_ax / d**2
-        ta, tm = self.ta / d3, self.tm / d3
-        return (np.sqrt(sa**2 + 3.0 * ta**2), np.sqrt(sm**2 + 3.0 * tm**2),
-                np.sqrt((sa + sm) ** 2 + 3.0 * (ta + tm) ** 2))
+        sm = self.sm_b / d3 + self.sm_ax / d**2
+        return np.sqrt(self.sa**2 + 3.0 * self.ta**2) / d3, np.sqrt(sm**2 + 3.0 * (self.tm / d3) ** 2)
+
+    def maximum(self, d: FloatArray) -> FloatArray:
+        """sigma'_max [Pa] at diameter d [m]."""
+        d3 = d**3
+        s = (self.sa + self.sm_b) / d3 + self.sm_ax / d**2
+        return np.sqrt(s**2 + 3.0 * ((self.ta + self.tm) / d3) ** 2)
 
 
 def _loads(ma: ArrayLike, tm: ArrayLike, kf: ArrayLike, kfs: ArrayLike, mm: ArrayLike, ta: ArrayLike,
@@ -119,7 +124,7 @@ def _fatigue_log_n(loads: _Loads, se: FloatArray, sm: FloatArray, criterion: str
     def log_n(x: FloatArray) -> FloatArray:
         d = np.exp(x)
         se_d = se * sec._kb(np.clip(d, lo, hi) * 1e3) if size_factor else se
-        alt, mid, _ = loads.von_mises(d)
+        alt, mid = loads.alternating_midrange(d)
         return -np.log(sec._inverse_n(alt / se_d, mid / sm, criterion))
 
     return log_n
@@ -237,7 +242,7 @@ def min_yield_diameter(target: ArrayLike, ma: ArrayLike, tm: ArrayLike, kf: Arra
 def _yield_diameter(loads: _Loads, n_t: FloatArray, sy: FloatArray) -> FloatArray:
     shape = np.broadcast_shapes(n_t.shape, sy.shape, *(np.shape(v) for v in vars(loads).values()))
     one = np.ones(shape)
-    unit = loads.von_mises(one)[2]                        # sigma'_max at d = 1 m without the axial term
+    unit = loads.maximum(one)                             # sigma'_max at d = 1 m
     bend = np.sqrt((loads.sa + loads.sm_b) ** 2 + 3.0 * (loads.ta + loads.tm) ** 2) * one
     closed = np.cbrt(n_t * bend / sy)
     if not np.any(loads.sm_ax):
@@ -246,7 +251,7 @@ def _yield_diameter(loads: _Loads, n_t: FloatArray, sy: FloatArray) -> FloatArra
 
     def log_n(x: FloatArray) -> FloatArray:
         with np.errstate(divide="ignore"):
-            return np.log(sy) - np.log(loads.von_mises(np.exp(x))[2])
+            return np.log(sy) - np.log(loads.maximum(np.exp(x)))
 
     with np.errstate(divide="ignore"):
         x0 = np.where(closed > 0.0, np.log(np.where(closed > 0.0, closed, 1.0)), math.log(1e-3))
@@ -295,7 +300,7 @@ def section_minimum_diameters(target: ArrayLike, ma: ArrayLike, tm: ArrayLike, k
     loads, _ = _loads(ma, tm, kf, kfs, 0.0, ta, fm, bore_ratio, None, path)
     log_n = _fatigue_log_n(loads, sev, sm, criterion, True)
     shape = np.broadcast_shapes(n_t.shape, *(np.shape(v) for v in vars(loads).values()))
-    unloaded = np.broadcast_to(loads.von_mises(np.ones(shape))[2] <= 0.0, shape)
+    unloaded = np.broadcast_to(loads.maximum(np.ones(shape)) <= 0.0, shape)
     n_tb = np.broadcast_to(n_t, shape)
 
     def safe_log_n(x: FloatArray) -> FloatArray:
