@@ -4,6 +4,7 @@ the kernel's rating (the oracle: the same drive written as a snapshot)."""
 from __future__ import annotations
 
 import asyncio
+from concurrent.futures import ThreadPoolExecutor
 from dataclasses import replace
 
 import numpy as np
@@ -61,7 +62,10 @@ def test_deferred_rating_waits_for_the_controls_to_be_still():
         await asyncio.sleep(RATING_DELAY * 2 + 0.2)
         assert state.ratings_current and state.ratings is not first
         assert state.ratings.cases[0].case.power == pytest.approx(5400.0)   # the last state, rated once
-    asyncio.run(scenario())
+    # A fresh thread has no running event loop, whatever an earlier test (a browser
+    # session's sync driver) left running on this one.
+    with ThreadPoolExecutor(1) as pool:
+        pool.submit(asyncio.run, scenario()).result()
 
 
 def test_shaft_explorer_shows_only_its_margins():
