@@ -41,6 +41,7 @@ from . import sections as sec
 from .sections import Criterion, FloatArray
 
 _WIDE = (1e-4, 10.0)          # [m] the bracket when Se does not depend on d
+_RATING = (1e-6, 10.0)        # [m] the rating's bracket: a lighter load reports 1 um (the safe side)
 _TOL = 1e-14                  # on log d: round-off
 
 
@@ -256,7 +257,7 @@ def _yield_diameter(loads: _Loads, n_t: FloatArray, sy: FloatArray) -> FloatArra
     with np.errstate(divide="ignore"):
         x0 = np.where(closed > 0.0, np.log(np.where(closed > 0.0, closed, 1.0)), math.log(1e-3))
     x = _solve(lambda v: np.where(unloaded, 0.0, log_n(v)), np.where(unloaded, 0.0, np.log(n_t * one)), x0,
-               1e-6, 100.0)
+               *_RATING)
     return np.where(unloaded, 0.0, np.exp(x))
 
 
@@ -283,7 +284,9 @@ def section_minimum_diameters(target: ArrayLike, ma: ArrayLike, tm: ArrayLike, k
     9th ed. Eq. 6-20); below 2.79 mm kb is held at its 2.79 mm value (a
     smaller kb than the true one: the safe side), above 254 mm at its
     254 mm value (outside the fit: such a result is out of the method's
-    range). Parameters as :func:`min_shaft_diameter` (``se_without_kb`` the
+    range). Diameters are sought from 1 um to 10 m; a section so lightly
+    loaded that it needs less than 1 um reports 1 um (the safe side).
+    Parameters as :func:`min_shaft_diameter` (``se_without_kb`` the
     endurance limit with every Marin factor but kb [Pa]) and
     :func:`min_yield_diameter`.
 
@@ -309,7 +312,7 @@ def section_minimum_diameters(target: ArrayLike, ma: ArrayLike, tm: ArrayLike, k
 
     target_log = np.where(unloaded, 0.0, np.log(n_tb))
     x = _solve(safe_log_n, target_log, _guess(safe_log_n, np.where(unloaded, 1.0, n_tb), sec.SIZE_RANGE[0]),
-               *_WIDE)
+               *_RATING)
     fat = np.where(unloaded, 0.0, np.exp(x))
     yld = np.broadcast_to(_yield_diameter(loads, n_t, syv), shape)
     return SectionMinimum(fatigue=fat, yield_=yld, governing=np.maximum(fat, yld))

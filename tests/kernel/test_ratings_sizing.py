@@ -14,11 +14,15 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from loadscope import rate, spec
 from loadscope.errors import InputError
 from loadscope.kernel import sections as sec
+from loadscope.kernel import shaftsize
 from loadscope.kernel.ratings import DUTY_CYCLE
 from loadscope.report import margins_rows, ratings_to_dict
 
@@ -144,3 +148,35 @@ def test_snapshot_static_fields_read_and_refuse_bad_values():
     with pytest.raises(InputError) as err:
         spec.drive_from_snapshot(snap)
     assert err.value.path == "shafts[1].supports[0].bearing.C0" and "> 0" in err.value.accepted
+
+
+_ROW = st.tuples(st.floats(0.0, 5e3), st.floats(0.0, 5e3), st.floats(0.0, 5e4), st.sampled_from([0.0, 0.4]),
+                 st.floats(1.0, 3.0), st.floats(1.0, 2.5))
+
+
+@settings(max_examples=30, deadline=None)
+@given(rows=st.lists(_ROW, min_size=1, max_size=6), n_t=st.floats(1.1, 4.0),
+       criterion=st.sampled_from(sec.CRITERIA), alt=st.floats(0.0, 0.5))
+def test_section_minimum_diameters_round_trip(rows, n_t, criterion, alt):
+    # One call for a whole shaft; each element must give the target back through the forward
+    # formulas (kb at the diameter found, held at the ends of Eq. 6-20's range).
+    ma, tm, fm, k, kf, kfs = (np.array(c) for c in zip(*rows))
+    sut, sy, se0 = 900e6, 650e6, 300e6
+    got = shaftsize.section_minimum_diameters(n_t, ma, tm, kf, kfs, se0, sut, sy, criterion, ta=alt * tm, fm=fm,
+                                              bore_ratio=k)
+    for j in range(len(rows)):
+        if ma[j] == tm[j] == fm[j] == 0.0:
+            assert got.fatigue[j] == got.yield_[j] == got.governing[j] == 0.0
+            continue
+        d = float(got.fatigue[j])
+        if d <= 1.000001e-6:
+            continue              # below the bracket: reported at 1 um (the safe side, by the docstring)
+        kb = float(sec.size_factor(min(max(d, sec.SIZE_RANGE[0]), sec.SIZE_RANGE[1])))
+        n = sec.shaft_fatigue_factor(d, ma[j], tm[j], kf[j], kfs[j], se0 * kb, sut, sy, criterion, ta=alt * tm[j],
+                                     fm=fm[j], bore=k[j] * d)
+        assert float(n) == pytest.approx(n_t, rel=1e-9)
+        dy = float(got.yield_[j])
+        if dy <= 1.000001e-6:
+            continue
+        ny = sec.shaft_yield_factor(dy, ma[j], tm[j], kf[j], kfs[j], sy, ta=alt * tm[j], fm=fm[j], bore=k[j] * dy)
+        assert float(ny) == pytest.approx(n_t, rel=1e-9)
