@@ -30,6 +30,11 @@ the 90 % of L10).
   10/3 for roller bearings; modified life Lnm = a1 a_ISO L10 with a1 from the
   reliability table (ISO 281:2007, 9.2, Table 12) and a_ISO given by the user
   (1 when not assessed).
+* Static load (ISO 76:2006, cl. 5 ball, cl. 6 roller bearings): the static
+  equivalent radial load P0 = X0 Fr + Y0 Fa, not less than Fr, with X0, Y0
+  of ISO 76 Tables 1 and 2 (see :func:`static_load_factors`), and the static
+  safety factor s0 = C0 / P0 against a required s0 (common practice: 1 for
+  ball and 1.5 for roller bearings in normal operation, more under shock).
 * Duty cycle: the equivalent load of the cycle is the p-mean of the case
   loads weighted by the revolutions of each case (ISO 281:2007, 6.3 gives
   the cube mean for balls; the 10/3 mean is the roller counterpart), and the
@@ -39,10 +44,12 @@ References
 ----------
 .. [1] ISO 281:2007, Rolling bearings -- Dynamic load ratings and rating
    life. Clauses 6 (P, Table 3), 7 (L10), 9 (a1, Table 12).
-.. [2] Budynas, R. G., Nisbett, J. K., Shigley's Mechanical Engineering
+.. [2] ISO 76:2006, Rolling bearings -- Static load ratings. Clauses 5.2
+   (radial ball bearings, Table 1), 6.2 (radial roller bearings, Table 2).
+.. [3] Budynas, R. G., Nisbett, J. K., Shigley's Mechanical Engineering
    Design, 9th ed., Ch. 11 (Eq. 11-3 life-load relation; Sec. 11-9 tapered
    roller bearings, induced load 0.47 Fr / K).
-.. [3] Palmgren, A., "Die Lebensdauer von Kugellagern", VDI-Z. 68 (1924);
+.. [4] Palmgren, A., "Die Lebensdauer von Kugellagern", VDI-Z. 68 (1924);
    Miner, M. A., "Cumulative damage in fatigue", J. Appl. Mech. 12 (1945).
 
 Results are for preliminary design; they must be checked by a qualified
@@ -60,10 +67,15 @@ from numpy.typing import ArrayLike, NDArray
 
 from ..errors import InputError, join_path
 from . import arraychecks as ac
+from .bearingpairs import (  # noqa: F401  (re-exported: the pair method is part of the bearing API)
+    PairAxialLoads,
+    angular_contact_induced_load,
+    paired_axial_loads,
+    tapered_roller_induced_load,
+)
 
 FloatArray = NDArray[np.float64]
 BearingKind = Literal["ball", "roller"]
-Arrangement = Literal["X", "O", "face_to_face", "back_to_back"]
 
 LIFE_EXPONENT: dict[str, float] = {"ball": 3.0, "roller": 10.0 / 3.0}
 """ISO 281:2007, 7.1: p = 3 for ball bearings, 10/3 for roller bearings."""
@@ -251,131 +263,6 @@ def deep_groove_equivalent_load(radial: ArrayLike, axial: ArrayLike, static_rati
     return ac.scalar_or_array(p)
 
 
-def tapered_roller_induced_load(radial: ArrayLike, y: ArrayLike, factor: float = 0.5, path: str = "") -> FloatArray:
-    """Induced axial force of a tapered roller bearing under radial load.
-
-    Fi = factor Fr / Y; factor = 0.5 with the catalogue Y (ISO-based
-    catalogues), or 0.47 with Timken's thrust factor K in place of Y
-    (Shigley 9th ed., Sec. 11-9; from memory).
-
-    Parameters
-    ----------
-    radial : array_like
-        Fr [N], >= 0.
-    y : array_like
-        Axial load factor Y (or K) of the bearing [-], > 0.
-    factor : float
-        0.5 (catalogue method) or 0.47 (Timken), 0 < factor <= 1.
-
-    Examples
-    --------
-    >>> float(tapered_roller_induced_load(6000.0, 1.5))
-    2000.0
-    """
-    fr = ac.non_negative(radial, join_path(path, "radial"), "N")
-    yv = ac.positive(y, join_path(path, "y"))
-    f = ac.within(factor, 0.0, 1.0, join_path(path, "factor"), lo_open=True)
-    return ac.scalar_or_array(f * fr / yv)
-
-
-def angular_contact_induced_load(radial: ArrayLike, ratio: ArrayLike = 1.14, path: str = "") -> FloatArray:
-    """Induced axial force of an angular-contact ball bearing: Fi = R Fr.
-
-    R = 1.14 is the catalogue value for 40 deg contact-angle bearings (equal
-    to their e in ISO 281:2007 Table 3); give the bearing's own R otherwise.
-
-    Parameters
-    ----------
-    radial : array_like
-        Fr [N], >= 0.
-    ratio : array_like
-        R [-], > 0.
-
-    Examples
-    --------
-    >>> float(angular_contact_induced_load(1000.0))
-    1140.0
-    """
-    fr = ac.non_negative(radial, join_path(path, "radial"), "N")
-    return ac.scalar_or_array(ac.positive(ratio, join_path(path, "ratio")) * fr)
-
-
-@dataclass(frozen=True)
-class PairAxialLoads:
-    """Axial loads of a bearing pair; bearing 1 sits at the smaller axial
-    position. ``axial`` [N] is what each bearing carries (>= its induced
-    force); ``reaction`` [N] is the axial force each exerts on the shaft,
-    signed along the shaft axis (reaction_1 + reaction_2 + thrust = 0);
-    ``held`` is 1 or 2: the bearing left at its own induced force (the other
-    takes that force plus the thrust)."""
-
-    axial_1: FloatArray
-    axial_2: FloatArray
-    reaction_1: FloatArray
-    reaction_2: FloatArray
-    held: NDArray[np.float64] | float
-
-
-_ARRANGEMENTS = {"X": (-1.0, 1.0), "face_to_face": (-1.0, 1.0), "O": (1.0, -1.0), "back_to_back": (1.0, -1.0)}
-
-
-def paired_axial_loads(induced_1: ArrayLike, induced_2: ArrayLike, thrust: ArrayLike, arrangement: Arrangement,
-                       path: str = "") -> PairAxialLoads:
-    """Axial loads of two angular-contact or tapered-roller bearings that
-    locate a shaft together (catalogue method; see the module docstring).
-
-    In the O (back-to-back) arrangement the load lines meet the axis outside
-    the span and each bearing stops the shaft moving toward the other; in the
-    X (face-to-face) arrangement they meet inside it and each stops the shaft
-    moving away from the other. The bearing that faces the thrust is B, the
-    other A; Ka = |thrust|:
-
-        Fa_B = max(Fi_B, Fi_A + Ka),   Fa_A = max(Fi_A, Fi_B - Ka)
-
-    Parameters
-    ----------
-    induced_1, induced_2 : array_like
-        Induced axial forces Fi [N] of bearings 1 and 2 (>= 0), e.g. from
-        :func:`tapered_roller_induced_load`.
-    thrust : array_like
-        Net external axial force on the shaft [N], signed along the shaft
-        axis (from a shaft solve: minus the sum of the axial reactions).
-    arrangement : {"X", "O", "face_to_face", "back_to_back"}
-    path : str
-        Field-path prefix for error messages.
-
-    Examples
-    --------
-    Back-to-back, Fi = 1000 N and 2000 N, 500 N of thrust toward +axis (taken
-    by bearing 1 in O): bearing 1 carries 2500 N, bearing 2 its own 2000 N.
-
-    >>> r = paired_axial_loads(1000.0, 2000.0, 500.0, "O")
-    >>> float(r.axial_1), float(r.axial_2), int(r.held)
-    (2500.0, 2000.0, 2)
-    >>> float(r.reaction_1 + r.reaction_2)
-    -500.0
-    """
-    a = ac.choice(arrangement, tuple(_ARRANGEMENTS), join_path(path, "arrangement"))
-    d1, d2 = _ARRANGEMENTS[a]
-    fi1 = ac.non_negative(induced_1, join_path(path, "induced_1"), "N")
-    fi2 = ac.non_negative(induced_2, join_path(path, "induced_2"), "N")
-    k = ac.finite(thrust, join_path(path, "thrust"), "N")
-    fi1, fi2, k = np.broadcast_arrays(fi1, fi2, k)
-    ka = np.abs(k)
-    b_is_1 = np.sign(k) == d1        # bearing 1 faces the thrust
-    fi_b = np.where(b_is_1, fi1, fi2)
-    fi_a = np.where(b_is_1, fi2, fi1)
-    fa_b = np.maximum(fi_b, fi_a + ka)
-    fa_a = np.maximum(fi_a, fi_b - ka)
-    fa1 = np.where(b_is_1, fa_b, fa_a)
-    fa2 = np.where(b_is_1, fa_a, fa_b)
-    a_held = fi_a + ka >= fi_b      # bearing A stays at its own induced force
-    held = np.where(b_is_1 == a_held, 2, 1)
-    return PairAxialLoads(axial_1=ac.scalar_or_array(fa1), axial_2=ac.scalar_or_array(fa2),
-                          reaction_1=ac.scalar_or_array(-d1 * fa1), reaction_2=ac.scalar_or_array(-d2 * fa2),
-                          held=ac.scalar_or_array(held))
-
-
 def basic_rating_life(rating: ArrayLike, load: ArrayLike, kind: BearingKind = "ball", path: str = "") -> FloatArray:
     """Basic rating life L10 = (C / P)^p [10^6 rev] (ISO 281:2007, 7.1).
 
@@ -548,6 +435,140 @@ def required_dynamic_rating(load: ArrayLike, target_life: ArrayLike, kind: Beari
     a1 = reliability_factor(reliability, method, path)
     aiso = ac.positive(a_iso, join_path(path, "a_iso"))
     return ac.scalar_or_array(load_ * (life / (a1 * aiso)) ** (1.0 / p))
+
+
+# ISO 76:2006 Table 1, single-row angular-contact ball bearings: Y0 by contact angle
+# 20..45 deg (X0 = 0.5), read here against the e of each angle in ISO 281:2007 Table 3
+# (e 0.57, 0.68, 0.80, 0.95, 1.14, 1.34; both from memory).
+ANGULAR_CONTACT_STATIC_E = np.array([0.57, 0.68, 0.80, 0.95, 1.14, 1.34])
+ANGULAR_CONTACT_STATIC_Y0 = np.array([0.42, 0.38, 0.33, 0.29, 0.26, 0.22])
+STATIC_FACTORS_BY_TYPE = ("deep_groove", "angular_contact", "tapered_roller")
+#: Required s0 when the user gives none (common practice for normal operation:
+#: ball 1, roller 1.5; raise it for shock loads or where quiet running matters).
+STATIC_SAFETY_DEFAULT: dict[str, float] = {"ball": 1.0, "roller": 1.5}
+
+
+def static_load_factors(bearing_type: str, e: ArrayLike = 1.14, path: str = "") -> tuple[FloatArray, FloatArray]:
+    """X0 and Y0 of a single-row bearing for the static equivalent load (ISO 76:2006).
+
+    * ``deep_groove`` (radial-contact groove ball, Table 1): X0 = 0.6, Y0 = 0.5.
+    * ``angular_contact`` (Table 1): X0 = 0.5, Y0 by contact angle, 0.42 at
+      20 deg to 0.22 at 45 deg (0.26 at 40 deg), found here from the
+      bearing's e (ISO 281:2007 Table 3 gives e for each angle) by linear
+      interpolation; e from 0.57 (20 deg) to 1.34 (45 deg).
+    * ``tapered_roller`` (radial roller, alpha != 0, cl. 6.2): X0 = 0.5,
+      Y0 = 0.22 cot(alpha), with cot(alpha) = 1.5 / e (ISO 281:2007, 6.2:
+      e = 1.5 tan(alpha)), so Y0 = 0.33 / e; e from 0.05 to 3.
+
+    Other types: give X0 and Y0 from the catalogue.
+
+    Parameters
+    ----------
+    bearing_type : {"deep_groove", "angular_contact", "tapered_roller"}
+    e : array_like
+        The bearing's e [-] (ignored for deep groove).
+    path : str
+        Field-path prefix for error messages.
+
+    Returns
+    -------
+    (X0, Y0) : ndarrays [-]
+
+    Examples
+    --------
+    >>> [float(v) for v in static_load_factors("angular_contact", 1.14)]
+    [0.5, 0.26]
+    >>> [round(float(v), 3) for v in static_load_factors("tapered_roller", 0.37)]
+    [0.5, 0.892]
+    """
+    ac.choice(bearing_type, STATIC_FACTORS_BY_TYPE, join_path(path, "type"))
+    if bearing_type == "deep_groove":
+        one = np.ones(np.shape(e))
+        return ac.scalar_or_array(0.6 * one), ac.scalar_or_array(0.5 * one)
+    if bearing_type == "angular_contact":
+        ev = ac.within(e, ANGULAR_CONTACT_STATIC_E[0], ANGULAR_CONTACT_STATIC_E[-1], join_path(path, "e"),
+                       note="20 to 45 deg contact angle, ISO 76:2006 Table 1; give y0 otherwise")
+        y0 = np.interp(ev, ANGULAR_CONTACT_STATIC_E, ANGULAR_CONTACT_STATIC_Y0)
+    else:
+        ev = ac.within(e, 0.05, 3.0, join_path(path, "e"), note="e = 1.5 tan(alpha)")
+        y0 = 0.33 / ev
+    return ac.scalar_or_array(np.full_like(y0, 0.5)), ac.scalar_or_array(y0)
+
+
+def static_equivalent_load(radial: ArrayLike, axial: ArrayLike, x0: ArrayLike, y0: ArrayLike,
+                           path: str = "") -> FloatArray:
+    """Static equivalent radial load P0 = max(X0 Fr + Y0 Fa, Fr) [N]
+    (ISO 76:2006, 5.2 and 6.2; single-row radial bearings).
+
+    Parameters
+    ----------
+    radial, axial : array_like
+        Fr >= 0 and Fa [N] (sign of Fa ignored); the largest load the
+        bearing carries at rest or turning slowly, or a peak (a jam).
+    x0, y0 : array_like
+        Static radial and axial factors [-]: 0 < X0 <= 1, Y0 >= 0 (see
+        :func:`static_load_factors`).
+    path : str
+        Field-path prefix for error messages.
+
+    Examples
+    --------
+    A deep-groove ball bearing, Fr = 5 kN, Fa = 3 kN (0.6 Fr + 0.5 Fa = 4.5 kN < Fr):
+
+    >>> float(static_equivalent_load(5000.0, 3000.0, 0.6, 0.5))
+    5000.0
+    >>> float(static_equivalent_load(2000.0, 4000.0, 0.6, 0.5))
+    3200.0
+    """
+    fr = ac.non_negative(radial, join_path(path, "radial"), "N")
+    fa = np.abs(ac.finite(axial, join_path(path, "axial"), "N"))
+    xv = ac.within(x0, 0.0, 1.0, join_path(path, "x0"), lo_open=True)
+    yv = ac.non_negative(y0, join_path(path, "y0"))
+    return ac.scalar_or_array(np.maximum(xv * fr + yv * fa, fr))
+
+
+def static_safety_factor(static_rating: ArrayLike, load: ArrayLike, path: str = "") -> FloatArray:
+    """Static safety factor s0 = C0 / P0 [-] (ISO 76:2006, the basic static
+    rating against the static equivalent load). An unloaded bearing gives inf.
+
+    Parameters
+    ----------
+    static_rating : array_like
+        Basic static load rating C0 [N], > 0.
+    load : array_like
+        P0 [N], >= 0.
+    path : str
+        Field-path prefix for error messages.
+
+    Examples
+    --------
+    >>> float(static_safety_factor(60e3, 24e3))
+    2.5
+    """
+    c0 = ac.positive(static_rating, join_path(path, "C0"), "N")
+    p0 = ac.non_negative(load, join_path(path, "load"), "N")
+    with np.errstate(divide="ignore"):
+        return ac.scalar_or_array(np.where(p0 > 0.0, c0 / np.where(p0 > 0.0, p0, 1.0), np.inf))
+
+
+def required_static_rating(load: ArrayLike, s0: ArrayLike, path: str = "") -> FloatArray:
+    """The basic static rating that just reaches the required s0: C0 = s0 P0 [N]
+    (the inverse of :func:`static_safety_factor`).
+
+    Parameters
+    ----------
+    load : array_like
+        P0 [N], >= 0.
+    s0 : array_like
+        Required static safety factor [-], 0 < s0 <= 10.
+
+    Examples
+    --------
+    >>> float(required_static_rating(24e3, 1.5))
+    36000.0
+    """
+    p0 = ac.non_negative(load, join_path(path, "load"), "N")
+    return ac.scalar_or_array(p0 * ac.within(s0, 0.0, 10.0, join_path(path, "s0"), lo_open=True))
 
 
 def _cycle(loads: ArrayLike, speeds: ArrayLike, shares: ArrayLike,

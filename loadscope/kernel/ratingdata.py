@@ -25,6 +25,7 @@ from typing import ClassVar, Literal
 
 from ..errors import InputError
 from . import checks, fasteners
+from .bearings import ANGULAR_CONTACT_STATIC_E, static_load_factors
 from .fasteners import BoltStrength
 
 BearingType = Literal["deep_groove", "angular_contact", "tapered_roller", "custom"]
@@ -47,6 +48,9 @@ X_RANGE = (0.35, 1.0)
 Y_RANGE = (0.0, 5.0)
 E_RANGE = (0.05, 3.0)
 LIFE_RANGE_H = (1.0, 1e7)                    # [h]
+X0_RANGE = (0.5, 1.0)                       # ISO 76:2006 Tables 1, 2: X0 is 0.5, 0.6 or 1
+S0_RANGE = (0.0, 10.0)                      # required static safety factor, > 0
+
 BEARING_RELIABILITY = (0.90, 0.9995)        # ISO 281:2007 Table 12 span
 MATERIAL_RELIABILITY = (0.5, 0.999999)      # Shigley 9th ed. Table 6-5 span
 TEMPERATURE_RANGE = (293.15, (1000.0 - 32.0) / 1.8 + 273.15)   # [K], Shigley 9th ed. Eq. 6-27
@@ -77,7 +81,10 @@ class Bearing:
     ``e`` and ``kind`` all given). ``C``, ``C0`` [N] basic dynamic and static
     load ratings; ``target_life`` [h]; ``reliability`` of the life (0.9 for
     L10). ``kind`` ball (p = 3) or roller (p = 10/3) follows from the type
-    unless custom.
+    unless custom. Static check (when ``C0`` is given): ``x0``, ``y0`` the
+    ISO 76 static factors (from ISO 76 by type when absent; required for
+    custom) and ``required_s0`` the static safety factor to reach (absent:
+    1 ball, 1.5 roller, common practice).
     """
 
     type: BearingType
@@ -90,6 +97,9 @@ class Bearing:
     e: float | None = None
     kind: RollingKind | None = None
     reliability: float = 0.9
+    x0: float | None = None
+    y0: float | None = None
+    required_s0: float | None = None
     path: str = field(default="", compare=False)
 
     def __post_init__(self) -> None:
@@ -127,6 +137,17 @@ class Bearing:
             for name in ("x", "y", "e", "kind"):
                 if getattr(self, name) is None:
                     raise InputError(f"{p}.{name}", "a custom bearing needs x, y, e and kind", "all four given")
+        if self.x0 is not None:
+            checks.within(self.x0, *X0_RANGE, f"{p}.x0")
+        if self.y0 is not None:
+            checks.within(self.y0, *Y_RANGE, f"{p}.y0")
+        if self.required_s0 is not None:
+            v = checks.finite(self.required_s0, f"{p}.required_s0")
+            if not S0_RANGE[0] < v <= S0_RANGE[1]:
+                raise InputError(f"{p}.required_s0", f"a static safety factor to reach must be above 0, got {v:g}"
+                                 if v <= 0.0 else f"is out of range, got {v:g}", "0 < required_s0 <= 10")
+        if self.C0 is not None and (self.x0 is None or self.y0 is None):
+            self._static_table_covers(p)
         if self.C0 is not None and self.C0 > 20.0 * self.C:
             raise InputError(f"{p}.C0", f"{self.C0:.6g} N is more than 20 times C: ratings swapped?",
                              f"<= {20.0 * self.C:.6g} N")
@@ -135,6 +156,35 @@ class Bearing:
         for name in names:
             if getattr(self, name) is not None:
                 raise InputError(f"{p}.{name}", f"{', '.join(names)} {why}", "omit")
+
+    def _static_table_covers(self, p: str) -> None:
+        missing = "x0" if self.x0 is None else "y0"
+        if self.type == "custom":
+            raise InputError(f"{p}.{missing}", "a custom bearing with C0 needs x0 and y0 (ISO 76) for its static "
+                             "check", "x0 0.5 to 1, y0 0 to 5")
+        if self.type == "angular_contact" and self.y0 is None:
+            e = self.factors()[2]
+            lo, hi = float(ANGULAR_CONTACT_STATIC_E[0]), float(ANGULAR_CONTACT_STATIC_E[-1])
+            if not lo <= e <= hi:
+                raise InputError(f"{p}.y0", f"ISO 76 Table 1 gives Y0 for contact angles 20 to 45 deg (e {lo:g} to "
+                                 f"{hi:g}); e is {e:g}", "y0 0 to 5 from the catalogue")
+
+    def static_factors(self) -> tuple[float, float] | None:
+        """(X0, Y0) of ISO 76 for the static equivalent load, the given ones
+        first; None without C0 (no static check)."""
+        if self.C0 is None:
+            return None
+        if self.x0 is not None and self.y0 is not None:
+            return self.x0, self.y0
+        x0, y0 = static_load_factors(self.type, self.factors()[2] if self.type != "deep_groove" else 1.0)
+        return (float(x0) if self.x0 is None else self.x0), (float(y0) if self.y0 is None else self.y0)
+
+    @property
+    def s0_target(self) -> float:
+        """The static safety factor to reach: ``required_s0``, else 1 (ball) or 1.5 (roller), common practice."""
+        if self.required_s0 is not None:
+            return self.required_s0
+        return 1.5 if self.rolling == "roller" else 1.0
 
     @property
     def rolling(self) -> RollingKind:

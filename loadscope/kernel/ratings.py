@@ -149,40 +149,73 @@ def _shaft_bearing_loads(shaft: Shaft, res: DriveResult, index: int) -> list[_Be
     return out
 
 
-def _bearing_checks(case: str, res: DriveResult) -> list[RatingCheck]:
+_Loads = dict[tuple[int, str], _BearingLoad]
+
+
+def _bearing_loads(res: DriveResult) -> _Loads:
+    """Every rated bearing's loads in one solved case, by (shaft index, support id)."""
+    return {(i, bl.support): bl for i, sh in enumerate(res.drive.shafts) for bl in _shaft_bearing_loads(sh, res, i)}
+
+
+_ISO76 = "ISO 76:2006 (P0 = max(X0 Fr + Y0 Fa, Fr) cl. 5.2, 6.2; s0 = C0/P0)"
+
+
+def _static_check(case: str, comp: str, bl: _BearingLoad, at: float) -> RatingCheck | None:
+    """s0 = C0 / P0 against the required s0, for a bearing whose C0 is known."""
+    b = bl.bearing
+    factors = b.static_factors()
+    if factors is None:
+        return None
+    assert b.C0 is not None
+    where = f"{bl.path}.bearing"
+    x0, y0 = factors
+    p0 = float(brg.static_equivalent_load(bl.radial, bl.axial, x0, y0, where))
+    s0 = float(brg.static_safety_factor(b.C0, p0, where))
+    need = float(brg.required_static_rating(p0, b.s0_target, where))
+    given = "given" if b.x0 is not None and b.y0 is not None else "ISO 76 table"
+    src = "given" if b.required_s0 is not None else "common practice"
+    return RatingCheck(case, "bearing", comp, "static safety s0", s0, b.s0_target, "factor", "min",
+                       f"{_ISO76}; X0 {x0:.3g}, Y0 {y0:.3g} ({given}); required s0 {b.s0_target:g} ({src})",
+                       bl.path, at, {"radial": bl.radial, "axial": bl.axial, "X0": x0, "Y0": y0,
+                                     "static_equivalent_load": p0, "C0": b.C0, "s0": s0, "required_C0": need})
+
+
+def _bearing_checks(case: str, res: DriveResult, loads: _Loads | None = None) -> list[RatingCheck]:
     out = []
-    for i, shaft in enumerate(res.drive.shafts):
-        for bl in _shaft_bearing_loads(shaft, res, i):
-            b = bl.bearing
-            where = f"{bl.path}.bearing"
-            l10 = float(brg.basic_rating_life(b.C, bl.load, b.rolling, where))
-            lnm = float(brg.modified_rating_life(b.C, bl.load, b.rolling, b.reliability, method="weibull", path=where))
-            hours = float(brg.life_hours(lnm, bl.speed, where))
-            target_rev = brg.revolutions(b.target_life, bl.speed, where)
-            need = float(brg.required_dynamic_rating(bl.load, target_rev, b.rolling, b.reliability, method="weibull",
-                                                     path=where))
-            det = dict(bl.details, L10=l10, L10h=float(brg.life_hours(l10, bl.speed, where)), Lnm=lnm, Lnmh=hours,
-                       required_C=need)
-            comp = f"{shaft.id}/{bl.support}"
-            at = next(s.at for s in shaft.supports if s.id == bl.support)
-            rel = f"{b.reliability * 100:g} %"
-            out.append(RatingCheck(case, "bearing", comp, f"life Lnm ({rel} reliability)", hours,
-                                   b.target_life, "life", "min", f"{_ISO281}; {b.type.replace('_', ' ')}, "
-                                   f"p = {'3' if b.rolling == 'ball' else '10/3'}", bl.path, at, det))
-            if b.type == "deep_groove" and bl.axial > 0.0:
-                top = float(brg.DEEP_GROOVE_REL[-1])
-                out.append(RatingCheck(case, "bearing", comp, "relative axial load f0 Fa/C0",
-                                       det["relative_axial"], top, "ratio", "max",
-                                       "ISO 281:2007 Table 3 (beyond its last row the bearing is axially overloaded)",
-                                       bl.path, at, det))
+    loads = _bearing_loads(res) if loads is None else loads
+    for (i, _), bl in loads.items():
+        shaft = res.drive.shafts[i]
+        b = bl.bearing
+        where = f"{bl.path}.bearing"
+        l10 = float(brg.basic_rating_life(b.C, bl.load, b.rolling, where))
+        lnm = float(brg.modified_rating_life(b.C, bl.load, b.rolling, b.reliability, method="weibull", path=where))
+        hours = float(brg.life_hours(lnm, bl.speed, where))
+        target_rev = brg.revolutions(b.target_life, bl.speed, where)
+        need = float(brg.required_dynamic_rating(bl.load, target_rev, b.rolling, b.reliability, method="weibull",
+                                                 path=where))
+        det = dict(bl.details, L10=l10, L10h=float(brg.life_hours(l10, bl.speed, where)), Lnm=lnm, Lnmh=hours,
+                   C=b.C, required_C=need)
+        comp = f"{shaft.id}/{bl.support}"
+        at = next(s.at for s in shaft.supports if s.id == bl.support)
+        rel = f"{b.reliability * 100:g} %"
+        out.append(RatingCheck(case, "bearing", comp, f"life Lnm ({rel} reliability)", hours,
+                               b.target_life, "life", "min", f"{_ISO281}; {b.type.replace('_', ' ')}, "
+                               f"p = {'3' if b.rolling == 'ball' else '10/3'}", bl.path, at, det))
+        if b.type == "deep_groove" and bl.axial > 0.0:
+            top = float(brg.DEEP_GROOVE_REL[-1])
+            out.append(RatingCheck(case, "bearing", comp, "relative axial load f0 Fa/C0",
+                                   det["relative_axial"], top, "ratio", "max",
+                                   "ISO 281:2007 Table 3 (beyond its last row the bearing is axially overloaded)",
+                                   bl.path, at, det))
+        static = _static_check(case, comp, bl, at)
+        if static is not None:
+            out.append(static)
     return out
 
 
-def _bearing_duty(runs: tuple[CaseResult, ...]) -> list[RatingCheck]:
+def _bearing_duty(runs: tuple[CaseResult, ...], per_case: list[_Loads]) -> list[RatingCheck]:
     if not runs:
         return []
-    per_case = [{(i, bl.support): bl for i, sh in enumerate(r.result.drive.shafts)
-                 for bl in _shaft_bearing_loads(sh, r.result, i)} for r in runs]
     shares = np.array([r.case.share for r in runs])
     out = []
     drive = runs[0].result.drive
@@ -198,7 +231,7 @@ def _bearing_duty(runs: tuple[CaseResult, ...]) -> list[RatingCheck]:
         # The life goes as C^p, so the rating that just reaches the target follows by scaling.
         need = b.C * (b.target_life / float(life.hours)) ** (1.0 / brg.LIFE_EXPONENT[b.rolling])
         det = {"equivalent_load": float(life.equivalent_load), "Lnm": float(life.life), "Lnmh": float(life.hours),
-               "required_C": need}
+               "C": b.C, "required_C": need}
         for r, share in zip(runs, np.atleast_1d(life.damage_share)):
             det[f"damage_share[{r.case.name}]"] = float(share)
         at = next(s.at for s in shaft.supports if s.id == sid)
@@ -248,13 +281,15 @@ def _bolt_checks(case: str, res: DriveResult) -> list[RatingCheck]:
 
 # --- the whole drive --------------------------------------------------------------------------------------------
 
-def rate_case(result: DriveResult, case: LoadCase) -> tuple[RatingCheck, ...]:
-    """Every check of one solved load case: bearings with data, every
-    critical section of every shaft with a material, stiffness at every gear,
-    bearing and mesh, every bolt when the housing has fastener data."""
+def rate_case(result: DriveResult, case: LoadCase, bearing_loads: _Loads | None = None) -> tuple[RatingCheck, ...]:
+    """Every check of one solved load case: bearings with data (life; static
+    safety where C0 is known), every critical section of every shaft with a
+    material, stiffness at every gear, bearing and mesh, every bolt when the
+    housing has fastener data. ``bearing_loads``: the case's bearing loads
+    when already found (:func:`rate` shares them with the duty cycle)."""
     name = case.name
     out: list[RatingCheck] = []
-    out += _bearing_checks(name, result)
+    out += _bearing_checks(name, result, bearing_loads)
     out += section_checks(name, result)
     out += stiffness_checks(name, result)
     out += _bolt_checks(name, result)
@@ -295,6 +330,7 @@ def rate(drive: Drive, samples: int = 64) -> DriveRatings:
         check at its worst case.
     """
     runs = solve_cases(drive, samples)
-    cases = tuple(CaseRatings(r.case, r.result, rate_case(r.result, r.case)) for r in runs)
-    duty = tuple(_bearing_duty(runs)) + tuple(_worst_of_cycle(cases))
+    loads = [_bearing_loads(r.result) for r in runs]
+    cases = tuple(CaseRatings(r.case, r.result, rate_case(r.result, r.case, ld)) for r, ld in zip(runs, loads))
+    duty = tuple(_bearing_duty(runs, loads)) + tuple(_worst_of_cycle(cases))
     return DriveRatings(drive, cases, duty)

@@ -23,6 +23,7 @@ is one.
 
 from __future__ import annotations
 
+import functools
 import math
 from typing import Any
 
@@ -30,6 +31,7 @@ import numpy as np
 
 from ..errors import InputError
 from . import sections as sec
+from . import shaftsize as size
 from .model import Shaft
 from .ratingcheck import RatingCheck
 from .ratingdata import Feature, Material
@@ -85,6 +87,7 @@ def _steps(shaft: Shaft) -> list[float]:
     return out
 
 
+@functools.lru_cache(maxsize=256)        # the same notch in every load case: found once
 def _feature_factors(f: Feature, mat: Material, path: str) -> tuple[float, float, str]:
     if f.Kf is not None and f.Kfs is not None:
         return f.Kf, f.Kfs, f"{f.kind}, Kf {f.Kf:g}, Kfs {f.Kfs:g} (given)"
@@ -122,6 +125,12 @@ def _critical(shaft: Shaft, sr: ShaftResult, mat: Material) -> list[tuple[str, f
     if not any(abs(x_peak - c[1]) <= 1e-6 for c in out):
         out.append(("peak M", x_peak, 1.0, 1.0, "plain section at the peak resultant moment", p))
     return out
+
+
+@functools.lru_cache(maxsize=256)        # the same sections in every load case: found once
+def _endurance(mat: Material, diameters: tuple[float, ...], path: str) -> sec.EnduranceLimit:
+    return sec.marin_endurance_limit(mat.Sut, mat.finish, np.array(diameters), "bending", mat.temperature,
+                                     mat.reliability, mat.Se_prime, path=path)
 
 
 def _clean(value: float, scale: float) -> float:
@@ -171,18 +180,22 @@ def section_checks(case: str, result: DriveResult) -> list[RatingCheck]:
         kf = np.array([c[2] for c in crits])
         kfs = np.array([c[3] for c in crits])
         where = shaft.path or shaft.id
-        se = sec.marin_endurance_limit(mat.Sut, mat.finish, dia, "bending", mat.temperature, mat.reliability,
-                                       mat.Se_prime, path=mpath)
-        nf = np.atleast_1d(sec.shaft_fatigue_factor(dia, ma, tm, kf, kfs, se.se, mat.Sut, mat.Sy, mat.criterion,
-                                                    ta=ta, fm=fm, bore=bore, path=where))
-        ny = np.atleast_1d(sec.shaft_yield_factor(dia, ma, tm, kf, kfs, mat.Sy, ta=ta, fm=fm, bore=bore, path=where))
+        se = _endurance(mat, tuple(dia.tolist()), mpath)
         st = sec.shaft_stresses(dia, ma, tm, kf, kfs, ta=ta, fm=fm, bore=bore, path=where)
+        nf = np.atleast_1d(sec.fatigue_safety_factor(st.alternating, st.midrange, se.se, mat.Sut, mat.Sy,
+                                                     mat.criterion, path=where))
+        with np.errstate(divide="ignore"):
+            ny = np.where(st.maximum > 0.0, mat.Sy / np.where(st.maximum > 0.0, st.maximum, 1.0), np.inf)
+        # The inverse, one call per shaft: the diameters that just reach the required factor.
+        need = size.section_minimum_diameters(mat.required_factor, ma, tm, kf, kfs, se.se / se.kb, mat.Sut, mat.Sy,
+                                              mat.criterion, ta=ta, fm=fm, bore_ratio=bore / dia, path=where)
         cols = {"diameter": dia, "bore": bore, "M": ma, "T": tm, "N": n_axial, "Kf": kf, "Kfs": kfs,
                 "bending_stress": sec.bending_stress(ma, dia, bore),
                 "torsion_stress": sec.torsion_stress(tm, dia, bore),
                 "axial_stress": sec.axial_stress(n_axial, dia, bore), "von_mises_max": st.maximum,
                 "alternating_vm": st.alternating, "midrange_vm": st.midrange, "Se": se.se, "ka": se.ka, "kb": se.kb,
-                "kd": se.kd, "ke": se.ke, "fatigue_factor": nf, "yield_factor": ny}
+                "kd": se.kd, "ke": se.ke, "fatigue_factor": nf, "yield_factor": ny,
+                "d_min_fatigue": need.fatigue, "d_min_yield": need.yield_, "d_min": need.governing}
         table = {k: np.broadcast_to(np.asarray(v, dtype=float), dia.shape) for k, v in cols.items()}
         for j, (label, x, _, _, note, path) in enumerate(crits):
             det = {k: float(v[j]) for k, v in table.items()}

@@ -19,7 +19,37 @@ from .units import convert, label
 #: Quantity kinds of a check that are shown as they are (no unit system).
 _PLAIN = {"life": "h", "factor": "-", "ratio": "-"}
 
-COLUMNS = ("case", "kind", "component", "at", "check", "value", "allowable", "unit", "margin", "status", "method")
+COLUMNS = ("case", "kind", "component", "at", "check", "value", "allowable", "unit", "margin", "status", "sizing",
+           "method")
+
+
+def _size(value: float, units: str, kind: str) -> str:
+    return f"{_number(float(convert(value, units, kind)))} {label(units, kind)}"
+
+
+def sizing(c: RatingCheck, units: str = "si") -> str:
+    """The part's size beside the smallest size that meets the check, in
+    display units: a shaft section's diameter and minimum diameter (the
+    larger of the fatigue and yield ones, and which governs), a bearing's C
+    or C0 and the rating that just reaches its target; "" for other checks.
+
+    >>> from loadscope.kernel.ratingcheck import RatingCheck
+    >>> c = RatingCheck("rated", "shaft section", "s at g", "fatigue factor", 2.0, 1.5, "factor", "min", "x",
+    ...                 details={"diameter": 0.048, "d_min": 0.039, "d_min_fatigue": 0.039, "d_min_yield": 0.03})
+    >>> sizing(c)
+    'd 48 mm, d_min 39 mm (fatigue)'
+    """
+    d = c.details
+    if "d_min" in d:
+        if d["d_min"] <= 0.0:
+            return f"d {_size(d['diameter'], units, 'length')}, unloaded"
+        gov = "yield" if d["d_min_yield"] > d["d_min_fatigue"] else "fatigue"
+        return f"d {_size(d['diameter'], units, 'length')}, d_min {_size(d['d_min'], units, 'length')} ({gov})"
+    if "required_C0" in d:
+        return f"C0 {_size(d['C0'], units, 'force')}, C0 needed {_size(d['required_C0'], units, 'force')}"
+    if "required_C" in d and "C" in d:
+        return f"C {_size(d['C'], units, 'force')}, C needed {_size(d['required_C'], units, 'force')}"
+    return ""
 
 
 def _unit(kind: str, units: str) -> str:
@@ -39,7 +69,8 @@ def check_row(c: RatingCheck, units: str = "si") -> dict[str, Any]:
     return {"case": c.case, "kind": c.kind, "component": c.component,
             "at": None if c.at is None else float(convert(c.at, units, "length")), "check": c.check,
             "value": _show(c.value, c.unit, units), "allowable": _show(c.allowable, c.unit, units),
-            "unit": _unit(c.unit, units), "margin": c.margin, "status": c.status, "method": c.method}
+            "unit": _unit(c.unit, units), "margin": c.margin, "status": c.status, "sizing": sizing(c, units),
+            "method": c.method}
 
 
 def case_names(ratings: DriveRatings) -> list[str]:
@@ -158,7 +189,7 @@ def _cell(v: Any, col: str) -> str:
 def margins_text(ratings: DriveRatings, units: str = "si") -> str:
     """Plain-text margins tables, one per load case and one for the duty
     cycle, ending with the caution."""
-    cols = ["kind", "component", "at", "check", "value", "allowable", "unit", "margin", "status", "method"]
+    cols = ["kind", "component", "at", "check", "value", "allowable", "unit", "margin", "status", "sizing", "method"]
     heads = [f"at [{label(units, 'length')}]" if c == "at" else c for c in cols]
     parts = [f"Margins (pass / watch within {WATCH_BAND:.0%} of the limit / fail); governing check of each "
              "component, smallest margin first"]

@@ -59,6 +59,12 @@ class BearingSpec(_Spec):
     target_life: Duration = _q("duration", "required life Lnm in hours, 1 to 1e7")
     reliability: Number = Field(_kernel_default(Bearing, "reliability"),
                                 description="reliability of the life, 0.90 to 0.9995 (0.9: L10)")
+    x0: Number | None = Field(None, description="static radial factor X0 (ISO 76), 0.5 to 1; from ISO 76 by type "
+                                                "when omitted (needed for custom with C0)")
+    y0: Number | None = Field(None, description="static axial factor Y0 (ISO 76), 0 to 5; from ISO 76 by type "
+                                                "when omitted (needed for custom with C0)")
+    required_s0: Number | None = Field(None, description="static safety factor C0/P0 to reach, 0 to 10; 1 ball, "
+                                                         "1.5 roller when omitted (common practice)")
 
 
 class PairSpec(_Spec):
@@ -150,7 +156,8 @@ class CaseSpec(_Spec):
 # --- readers ----------------------------------------------------------------------------------------------------
 
 def read_bearing(s: BearingSpec, p: str) -> Bearing:
-    return Bearing(s.type, s.C, s.target_life, s.C0, s.f0, s.x, s.y, s.e, s.kind, s.reliability, path=p)
+    return Bearing(s.type, s.C, s.target_life, s.C0, s.f0, s.x, s.y, s.e, s.kind, s.reliability, s.x0, s.y0,
+                   s.required_s0, path=p)
 
 
 def read_pair(s: PairSpec, p: str) -> BearingPair:
@@ -190,7 +197,8 @@ def _f(v: float | None) -> float | None:
 def write_bearing(b: Bearing) -> BearingSpec:
     return BearingSpec.model_construct(type=b.type, C=float(b.C), C0=_f(b.C0), f0=_f(b.f0), x=_f(b.x), y=_f(b.y),
                                        e=_f(b.e), kind=b.kind, target_life=float(b.target_life),
-                                       reliability=float(b.reliability))
+                                       reliability=float(b.reliability), x0=_f(b.x0), y0=_f(b.y0),
+                                       required_s0=_f(b.required_s0))
 
 
 def write_pair(p: BearingPair) -> PairSpec:

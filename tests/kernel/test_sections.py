@@ -16,7 +16,7 @@ tests/reference/test_sections_reference.py. Here:
 * Bad input: each gets InputError naming the field and the accepted range.
 
 Tolerances: 1e-12 relative for closed forms of a few operations; the
-bisection of min_shaft_diameter runs to round-off, so its round trip is held
+solve of shaftsize.min_shaft_diameter runs to round-off, so its round trip is held
 to 1e-9 relative.
 """
 
@@ -31,6 +31,7 @@ from hypothesis import strategies as st
 
 from loadscope.errors import InputError
 from loadscope.kernel import sections as s
+from loadscope.kernel import shaftsize
 
 FAST = settings(max_examples=60, deadline=None)
 CRITERIA = list(s.CRITERIA)
@@ -135,7 +136,7 @@ def test_min_diameter_gives_the_target_back(n_t, ma, tm, ta, fm, bore_ratio, siz
     kf, kfs, sut, sy = 1.9, 1.6, 800e6, 600e6
     se = 0.4 * sut            # without kb when size=True
     try:
-        d = float(s.min_shaft_diameter(n_t, ma, tm, kf, kfs, se, sut, sy, criterion, ta=ta, fm=fm,
+        d = float(shaftsize.min_shaft_diameter(n_t, ma, tm, kf, kfs, se, sut, sy, criterion, ta=ta, fm=fm,
                                        bore_ratio=bore_ratio, size_factor=size))
     except InputError as err:  # outside the size factor's 2.79 to 254 mm: the message says so
         assert size and "target" in err.path
@@ -149,11 +150,12 @@ def test_min_diameter_gives_the_target_back(n_t, ma, tm, ta, fm, bore_ratio, siz
 def test_min_diameter_broadcasts_like_a_loop():
     targets = np.array([1.5, 2.0, 3.0])
     ma = np.array([[100.0], [800.0]])                  # (2, 1) against (3,)
-    got = s.min_shaft_diameter(targets, ma, 300.0, 1.7, 1.4, 200e6, 700e6, 500e6, "gerber")
+    got = shaftsize.min_shaft_diameter(targets, ma, 300.0, 1.7, 1.4, 200e6, 700e6, 500e6, "gerber")
     assert got.shape == (2, 3)
     for i in range(2):
         for j in range(3):
-            one = s.min_shaft_diameter(targets[j], float(ma[i, 0]), 300.0, 1.7, 1.4, 200e6, 700e6, 500e6, "gerber")
+            one = shaftsize.min_shaft_diameter(targets[j], float(ma[i, 0]), 300.0, 1.7, 1.4, 200e6, 700e6, 500e6,
+                                               "gerber")
             assert float(got[i, j]) == pytest.approx(float(one), rel=1e-15)
     n = s.shaft_fatigue_factor(np.array([0.02, 0.03]), ma, 300.0, 1.7, 1.4, 200e6, 700e6, 500e6, "asme_elliptic")
     for i in range(2):
@@ -208,10 +210,10 @@ def test_bad_inputs_name_the_field_and_range():
         s.notch_sensitivity(1e-3, neuber=0.01, peterson=1e-4)
     assert err.value.path == "notch_sensitivity"
     with pytest.raises(InputError) as err:
-        s.min_shaft_diameter(2.0, 0.0, 0.0, 1.5, 1.3, 200e6, 700e6, path="s")
+        shaftsize.min_shaft_diameter(2.0, 0.0, 0.0, 1.5, 1.3, 200e6, 700e6, path="s")
     assert "carries no load" in str(err.value)
     with pytest.raises(InputError) as err:
-        s.min_shaft_diameter(2.0, 1e-4, 1e-4, 1.5, 1.3, 200e6, 700e6, size_factor=True)
+        shaftsize.min_shaft_diameter(2.0, 1e-4, 1e-4, 1.5, 1.3, 200e6, 700e6, size_factor=True)
     assert err.value.path == "target" and "already met" in str(err.value)
     with pytest.raises(InputError) as err:
         s.shaft_fatigue_factor(0.03, [10.0, float("nan")], 10.0, 1.5, 1.3, 200e6, 700e6)

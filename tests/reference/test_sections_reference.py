@@ -26,6 +26,7 @@ import pytest
 import sympy as sp
 
 from loadscope.kernel import sections as s
+from loadscope.kernel import shaftsize
 
 KPSI = s.KPSI
 INCH = s.INCH
@@ -217,7 +218,7 @@ def test_min_diameter_matches_sympy(criterion):
     a_v = kf * 32.0 * ma / math.pi                       # Kf 32 M_a / pi
     b_v = math.sqrt(3.0) * kfs * 16.0 * tm / math.pi     # sqrt(3) Kfs 16 T_m / pi
     want = [float(ref(*row)) for row in zip(n_t, a_v, b_v, se, sut, sy)]
-    got = s.min_shaft_diameter(n_t, ma, tm, kf, kfs, se, sut, sy, criterion)      # one broadcast call
+    got = shaftsize.min_shaft_diameter(n_t, ma, tm, kf, kfs, se, sut, sy, criterion)      # one broadcast call
     np.testing.assert_allclose(got, want, rtol=1e-12)
 
 
@@ -227,6 +228,6 @@ def test_goodman_diameter_eq_7_8():
     # (M_m = T_a = 0). Example 7-1's inputs and n = 1.62 give d = 1.100 in back.
     d = (16 * 1.62 / math.pi * (2 * EX71["kf"] * EX71["ma"] / (29.3 * KPSI)
                                 + math.sqrt(3) * EX71["kfs"] * EX71["tm"] / EX71["sut"])) ** (1 / 3)
-    got = s.min_shaft_diameter(1.62, EX71["ma"], EX71["tm"], EX71["kf"], EX71["kfs"], 29.3 * KPSI, EX71["sut"])
+    got = shaftsize.min_shaft_diameter(1.62, EX71["ma"], EX71["tm"], EX71["kf"], EX71["kfs"], 29.3 * KPSI, EX71["sut"])
     assert float(got) == pytest.approx(d, rel=1e-12)
     assert d / INCH == pytest.approx(1.100, abs=5e-4)

@@ -142,10 +142,12 @@ pos = st.floats(1e-3, 1e6, allow_nan=False)
        e=st.floats(0.05, 3.0), sut=st.floats(300e6, 2000e6), ratio=st.floats(0.3, 1.0), se=st.floats(0.1, 0.6),
        temp=st.floats(293.15, 800.0), kt=st.floats(1.0, 10.0), r=st.floats(1e-5, 5e-3), pre=st.floats(0.0, 9e4),
        power=st.floats(1.0, 1e5), speed=st.floats(-1e3, 1e3).filter(lambda v: abs(v) > 1e-3),
-       slope=st.floats(1e-6, 1e-2))
-def test_rating_data_round_trips_bit_exact(c, life, rel, y, e, sut, ratio, se, temp, kt, r, pre, power, speed, slope):
+       slope=st.floats(1e-6, 1e-2), x0=st.floats(0.5, 1.0), y0=st.floats(0.0, 5.0), s0=st.floats(1e-3, 10.0))
+def test_rating_data_round_trips_bit_exact(c, life, rel, y, e, sut, ratio, se, temp, kt, r, pre, power, speed, slope,
+                                           x0, y0, s0):
     base = drive_from_snapshot(demo_snapshot())
-    d = _with(base, bearing=Bearing("custom", c, life, x=0.4, y=y, e=e, kind="roller", reliability=rel),
+    d = _with(base, bearing=Bearing("custom", c, life, C0=0.7 * c, x=0.4, y=y, e=e, kind="roller", reliability=rel,
+                                    x0=x0, y0=y0, required_s0=s0),
               material=Material(sut, ratio * sut, se * sut, "ground", temp, 0.95, "gerber", 2.0),
               feature=Feature("f", "groove", 0.1, Kt=kt, Kts=kt, radius=r),
               fastener=Fastener(0.016, "10.9", preload=pre, shear_plane="shank", stiffness_fraction=0.3),
