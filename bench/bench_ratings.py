@@ -22,16 +22,6 @@ from loadscope.report import margins_tables
 from loadscope.spec import demo_snapshot, drive_from_snapshot
 
 
-def _cpu_median(fn, repeat: int, number: int) -> float:
-    times = []
-    for _ in range(repeat):
-        t0 = time.process_time()
-        for _ in range(number):
-            fn()
-        times.append((time.process_time() - t0) / number)
-    return float(np.median(times))
-
-
 def _min_diameter_calls(ratings):
     """The section_minimum_diameters calls of one rating (one per shaft and case), rebuilt from the details."""
     calls = []
@@ -55,7 +45,7 @@ def main() -> None:
     ratings = rate(drive)                               # warm up (diagram sampling, imports)
     margins_tables(ratings)
     t_rate = median_time(lambda: rate(drive), repeat=15, number=10)
-    cpu_rate = _cpu_median(lambda: rate(drive), repeat=15, number=10)
+    cpu_rate = median_time(lambda: rate(drive), repeat=15, number=10, clock=time.process_time)
     t_solve = median_time(lambda: [s.solution.diagram for r in solve_cases(drive) for s in r.result.shafts],
                           repeat=15, number=10)
     calls = _min_diameter_calls(ratings)
