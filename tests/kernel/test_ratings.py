@@ -21,20 +21,10 @@ import pytest
 from hypothesis import given, settings
 from strategies import drives
 
-from loadscope import LoadCase, StiffnessLimits, rate, solve, spec
+from loadscope import LoadCase, StiffnessLimits, rate, solve
 from loadscope.kernel.cases import apply_case, drive_cases, solve_cases
 from loadscope.kernel.ratingcheck import WATCH_BAND, RatingCheck, governing
 from loadscope.kernel.ratings import DUTY_CYCLE
-
-
-@pytest.fixture(scope="module")
-def drive():
-    return spec.drive_from_snapshot(spec.demo_snapshot())
-
-
-@pytest.fixture(scope="module")
-def ratings(drive):
-    return rate(drive)
 
 
 def _one(checks, kind, component, check_start=""):

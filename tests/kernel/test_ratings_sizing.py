@@ -19,22 +19,12 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from loadscope import rate, spec
+from loadscope import spec
 from loadscope.errors import InputError
 from loadscope.kernel import sections as sec
 from loadscope.kernel import shaftsize
 from loadscope.kernel.ratings import DUTY_CYCLE
 from loadscope.report import margins_rows, ratings_to_dict
-
-
-@pytest.fixture(scope="module")
-def drive():
-    return spec.drive_from_snapshot(spec.demo_snapshot())
-
-
-@pytest.fixture(scope="module")
-def ratings(drive):
-    return rate(drive)
 
 
 def _sections(ratings, check):
