@@ -14,6 +14,7 @@ from typing import Any
 from .. import CAUTION
 from ..kernel.ratingcheck import WATCH_BAND, RatingCheck, governing
 from ..kernel.ratings import DUTY_CYCLE, DriveRatings
+from .results import text_table
 from .units import convert, label
 
 #: Quantity kinds of a check that are shown as they are (no unit system).
@@ -212,13 +213,8 @@ def margins_text(ratings: DriveRatings, units: str = "si") -> str:
 def _table(heads: list[str], rows: list[dict[str, Any]], cols: list[str]) -> str:
     if not rows:
         return "(nothing to rate: add bearing, material or fastener data)"
-    cells = [heads] + [[_cell(r[c], c) for c in cols] for r in rows]
-    widths = [max(len(r[i]) for r in cells) for i in range(len(cols))]
-    right = {"at", "value", "allowable", "margin"}
-    lines = ["  ".join(x.rjust(w) if c in right else x.ljust(w) for x, w, c in zip(r, widths, cols)).rstrip()
-             for r in cells]
-    lines.insert(1, "  ".join("-" * w for w in widths))
-    return "\n".join(lines)
+    right = {i for i, c in enumerate(cols) if c in ("at", "value", "allowable", "margin")}
+    return text_table(heads, [[_cell(r[c], c) for c in cols] for r in rows], right)
 
 
 CSV_FIELDS = ("group", "item", "quantity", "x", "y", "z", "value", "unit", "case", "kind", "allowable", "margin",

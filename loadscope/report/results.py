@@ -175,12 +175,20 @@ def tables(result: DriveResult, units: str = "si") -> dict[str, Any]:
     return {name: pd.DataFrame(body, columns=cols) for name, (cols, body) in table_rows(result, units).items()}
 
 
-def _fmt_table(headers: list[str], body: list[list[Any]]) -> str:
-    cells = [list(headers)] + [[(f"{c + 0.0:,.4g}" if isinstance(c, float) else str(c)) for c in r] for r in body]
+def text_table(headers: list[str], body: list[list[str]], right: set[int]) -> str:
+    """A plain-text table: each column padded to its widest cell (the columns
+    whose index is in ``right`` aligned right), a dashed rule under the headers."""
+    cells = [list(headers)] + [list(r) for r in body]
     widths = [max(len(r[i]) for r in cells) for i in range(len(headers))]
-    lines = ["  ".join(c.rjust(w) if j else c.ljust(w) for j, (c, w) in enumerate(zip(r, widths))) for r in cells]
+    lines = ["  ".join(c.rjust(w) if j in right else c.ljust(w) for j, (c, w) in enumerate(zip(r, widths))).rstrip()
+             for r in cells]
     lines.insert(1, "  ".join("-" * w for w in widths))
     return "\n".join(lines)
+
+
+def _fmt_table(headers: list[str], body: list[list[Any]]) -> str:
+    cells = [[(f"{c + 0.0:,.4g}" if isinstance(c, float) else str(c)) for c in r] for r in body]
+    return text_table(headers, cells, set(range(1, len(headers))))
 
 
 def to_text(result: DriveResult, units: str = "si") -> str:
