@@ -338,7 +338,8 @@ def test_no_focus_is_the_whole_drive_and_a_bad_focus_names_the_shafts(demo):
     every = force_scene(demo, arrow_scale=whole["layout"]["meta"]["arrow_scale"],
                         shafts=["output", "intermediate", "input"])       # all of them, in any order
     # the same hardware and arrows; only the bolts (and the head size, from the size of what is drawn) go
-    kept = [k for k, t in enumerate(whole["data"]) if t["name"] != "mounting bolts" and (k < 7 or t.get("mode") == "lines")]
+    kept = [k for k, t in enumerate(whole["data"])
+            if t["name"] != "mounting bolts" and (k < 7 or t.get("mode") == "lines")]
     assert [every["data"][k] for k in kept] == [whole["data"][k] for k in kept]
     with pytest.raises(InputError, match=r"shafts: no shaft 'nope' in this drive.*input, intermediate, output"):
         force_scene(demo, shafts=["input", "nope"])
