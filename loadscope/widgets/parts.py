@@ -353,7 +353,10 @@ class MarginTable(W.VBox):
     the governing check of each, smallest margin first) for the duty cycle or
     one load case, chosen in the drop-down. Margins come from the last rating
     (see :class:`~loadscope.widgets.state.ExplorerState`); a note says when
-    the controls have moved since. ``shafts`` keeps the rows of those shafts."""
+    the controls have moved since. ``shafts`` keeps the rows of those shafts.
+    The sizing column puts each part's size beside the smallest that meets
+    its target (``loadscope.report.margins.sizing``: a section's d and
+    d_min, a bearing's C and the C needed, or C0 and the C0 needed)."""
 
     def __init__(self, state: ExplorerState, shafts: tuple[str, ...] | None = None) -> None:
         self.state = state
@@ -394,7 +397,7 @@ class MarginTable(W.VBox):
         self.rows = rows
         lu = html.escape(label(st.units, "length"))
         head = "".join(f"<th>{h}</th>" for h in ("component", "kind", f"at [{lu}]", "check", "value", "allowable",
-                                                 "unit", "margin", "status"))
+                                                 "unit", "margin", "status", "sizing"))
         body = []
         for r in rows:
             at = "" if r["at"] is None else number(r["at"])
@@ -404,7 +407,8 @@ class MarginTable(W.VBox):
                         f"<td>{html.escape(r['component'])}</td><td>{html.escape(r['kind'])}</td>"
                         f"<td class='n'>{at}</td><td>{html.escape(r['check'])}</td><td class='n'>{value}</td>"
                         f"<td class='n'>{allow}</td><td>{html.escape(r['unit'])}</td>"
-                        f"<td class='n'>{_margin_text(r['margin'])}</td><td>{html.escape(r['status'])}</td></tr>")
+                        f"<td class='n'>{_margin_text(r['margin'])}</td><td>{html.escape(r['status'])}</td>"
+                        f"<td class='sizing'>{html.escape(r['sizing'])}</td></tr>")
         caption = html.escape(f"Margins, {self.case.value}: governing check of each component, smallest first "
                               "(hover a row for its method)")
         self.html.value = (note + f"<table data-table='margins'><caption>{caption}</caption><tr>{head}</tr>"
