@@ -97,3 +97,18 @@ def test_broken_snapshot_shows_its_error_and_keeps_the_state(board, tmp_path):
         "() => !document.querySelector('.loadscope-message').innerText.includes('pressure_angle')", timeout=20_000)
     assert "JSON" in board.message()
     assert board.table_text() == table and board.revs() == revs
+
+
+def test_gear_pair_shows_its_pair_and_switches_to_another(board):
+    if board.name != "gear_pair":
+        pytest.skip("the gear-pair dashboard's own controls")
+    pair = board.page.locator("table[data-table='pair'] caption")
+    assert pair.inner_text().startswith("pair stage1: p1 on input / g2 on intermediate")
+    revs = board.revs()
+    board.page.locator(".loadscope-mesh-choice select").select_option("stage2")
+    board.wait_revs_above(revs)                      # both figures redrawn for the other pair
+    board.page.wait_for_function(
+        "() => document.querySelector(\"table[data-table='pair'] caption\").innerText.startsWith('pair stage2')",
+        timeout=20_000)
+    assert "g4 on output" in pair.inner_text()
+    assert board.figure_errors() == []
