@@ -187,7 +187,7 @@ class MeshExplorer(_Explorer):
         self.pair.redraw()
         self.forces.redraw()
         self.reactions.redraw()
-        if change is not None:          # a new drive: the panel has rebuilt itself with this mesh's group
+        if change is not None:          # a choice in the drop-down (a new drive rebuilds the panel itself)
             self.panel.regroup(self._groups)
 
     def _new_drive(self, _change: Any) -> None:

@@ -272,7 +272,7 @@ class LoadTable(W.HTML):
         return {k: pd.DataFrame(rows, columns=cols) for k, (cols, rows) in self.tables.items()}
 
     def refocus(self, shafts: tuple[str, ...] | None, meshes: tuple[str, ...] | None) -> None:
-        """Keep the rows of other shafts / meshes (None: all) and redraw."""
+        """Show only the rows of these shafts / meshes (None: all) and redraw."""
         self._shafts, self._meshes = shafts, meshes
         self.redraw()
 
