@@ -35,6 +35,8 @@ PLOTLY_URL_ENV = "LOADSCOPE_PLOTLY_URL"
 SNAPSHOT_ENV = "LOADSCOPE_SNAPSHOT"
 #: the folder of the server's settings (voila.json)
 CONFIG_DIR = Path(__file__).resolve().parent
+#: the Jupyter data folder that holds the page template (voila/templates/loadscope)
+TEMPLATE_ROOT = CONFIG_DIR / "share"
 DEFAULT_PORT = 8866
 
 
@@ -107,6 +109,8 @@ def serve(port: int = DEFAULT_PORT, snapshot: str | None = None, open_browser: b
     else:
         os.environ.pop(SNAPSHOT_ENV, None)
 
+    # the page template ("loadscope", in share/) is found on the Jupyter data path
+    os.environ["JUPYTER_PATH"] = os.pathsep.join(p for p in (str(TEMPLATE_ROOT), os.environ.get("JUPYTER_PATH")) if p)
     app = DashboardServer(config_file_paths=[str(CONFIG_DIR)])
     app.initialize([*argv, str(root)])
 

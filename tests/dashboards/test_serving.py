@@ -89,3 +89,25 @@ def test_log_stays_quiet_while_pages_are_served(server, browser):
     assert "is not trusted" not in log
     assert "without encryption" not in log
     assert "WARNING" not in log[before:], log[before:][-2000:]
+
+
+@pytest.mark.browser
+def test_page_asks_nothing_of_other_hosts(server, browser):
+    """A team server may be offline, and opening a dashboard should not tell
+    a third party who did: every request of the page goes to our server
+    (Voila's stock page fetches an icon font from a public CDN; our page
+    template leaves it out)."""
+    context = browser.new_context(viewport={"width": 1000, "height": 700})
+    try:
+        page = context.new_page()
+        urls: list[str] = []
+        page.on("request", lambda r: urls.append(r.url))
+        board = Dashboard(page, "shaft")
+        page.goto(server.page_url("shaft"), wait_until="commit")
+        board.wait_ready()
+        board.close()
+    finally:
+        context.close()
+    assert urls
+    elsewhere = [u for u in urls if not u.startswith((server.url, "blob:", "data:"))]
+    assert elsewhere == []
