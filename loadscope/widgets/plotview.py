@@ -14,6 +14,9 @@ once per page, shared by every view:
 3. else it asks once with ``{"kind": "need_plotly"}`` and Python replies with
    the bundle shipped in the plotly package as one binary buffer.
 
+A figure made only of 3D traces (the force scene) is drawn by the view's own
+canvas renderer (``scene3d.js``), without plotly.js and without WebGL.
+
 The figure itself travels in custom messages: a view asks
 ``{"kind": "need_figure"}`` on render and gets the full spec; a change sends
 only :func:`loadscope.viz.figure_update` of the last and the new spec. Both
@@ -57,6 +60,14 @@ def plotly_bundle() -> bytes:
 
     path = Path(plotly.__file__).parent / "package_data" / "plotly.min.js"
     return path.read_bytes()
+
+
+def _esm_source() -> str:
+    """The view's JavaScript module: the scene renderer (``scene3d.js``, no
+    exports) in front of ``plotview.js``, which uses it; anywidget takes one
+    module text."""
+    here = Path(__file__).parent
+    return "\n".join((here / name).read_text(encoding="utf-8") for name in ("scene3d.js", "plotview.js"))
 
 
 def _round(value: float) -> float:
@@ -162,7 +173,7 @@ class PlotView(anywidget.AnyWidget):
     whole figure; later ones send only what changed.
     """
 
-    _esm = Path(__file__).with_name("plotview.js")
+    _esm = _esm_source()
     plotly_url = traitlets.Unicode(help="where the page loads plotly.js from; empty: ask this kernel").tag(sync=True)
     rev = traitlets.Int(0, help="revision of the current figure; the page shows it in data-rev").tag(sync=True)
 
