@@ -96,7 +96,7 @@ class Server:
 
     def log_tail(self, chars: int = 3000) -> str:
         """The end of the server's log, without Voila's routine warnings."""
-        noise = ("is not trusted", "websocket_ping", "Setting websocket_ping")
+        noise = ("websocket_ping", "Setting websocket_ping")
         lines = [ln for ln in self.log.read_text().splitlines() if not any(n in ln for n in noise)]
         return "\n".join(lines)[-chars:]
 

@@ -13,6 +13,12 @@ cannot express:
   missing, so closed pages would leave their kernels running until culled.
   Voila's ``prelaunch_hook`` can set the cookie too, but it cannot be combined
   with a warm kernel pool; setting it in the page handler can.
+
+It also marks the dashboards as trusted in a signature store that lives only
+in the server's memory (``NotebookNotary.db_file`` in ``voila.json``), so the
+log does not warn that they are "not trusted": they carry no outputs, the
+server runs them itself, and the user's own Jupyter trust database is left
+alone.
 """
 
 from __future__ import annotations
@@ -21,6 +27,7 @@ import re
 from pathlib import Path
 from typing import Any
 
+import nbformat
 import tornado.web
 from jupyter_server.utils import url_path_join
 from voila.app import Voila
@@ -70,7 +77,15 @@ class _PageHandler(TornadoVoilaHandler):
 
 
 class DashboardServer(Voila):
-    """Voila with the plotly route and the cookie-setting page handler."""
+    """Voila with the plotly route, the cookie-setting page handler and the
+    dashboards signed as trusted."""
+
+    def init_settings(self) -> dict:
+        settings = super().init_settings()         # makes the contents manager
+        notary = self.contents_manager.notary
+        for notebook in sorted(Path(self.root_dir).glob("*.ipynb")):
+            notary.sign(nbformat.read(notebook, as_version=nbformat.NO_CONVERT))
+        return settings
 
     def init_handlers(self) -> list:
         handlers = []

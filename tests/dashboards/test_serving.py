@@ -70,3 +70,21 @@ def test_page_loads_plotly_from_the_static_route(server, browser):
         board.close()
     finally:
         context.close()
+
+
+@pytest.mark.browser
+def test_log_stays_quiet_while_pages_are_served(server, browser):
+    """What `make demo` prints is what a user must read: no warning that
+    the dashboards are "not trusted" (they are signed in the server's memory)
+    and none that a kernel talks over unencrypted TCP (its channels are
+    encrypted with CurveZMQ keys the server hands out)."""
+    context = browser.new_context(viewport={"width": 1000, "height": 700})
+    try:
+        Dashboard.open(context, server, "gear_pair").close()
+    finally:
+        context.close()
+    server.warm()                          # the pool's next kernel has started too
+    log = server.log.read_text()
+    assert "is not trusted" not in log
+    assert "without encryption" not in log
+    assert "WARNING" not in log, log[-2000:]
