@@ -165,6 +165,20 @@ COUNT_WEBGL = """(() => {
   }
 })();"""
 
+#: CSS pixel [x, y] of the first 3 x 3 patch of colour ``rgb`` on the force scene's canvas
+_SCENE_SPOT = """(rgb) => {
+  const c = document.querySelector('[data-figure=force_scene] canvas');
+  const w = c.width, h = c.height, d = c.getContext('2d').getImageData(0, 0, w, h).data;
+  const near = (x, y) => { const i = 4 * (y * w + x);
+    return Math.abs(d[i] - rgb[0]) <= 10 && Math.abs(d[i + 1] - rgb[1]) <= 10 && Math.abs(d[i + 2] - rgb[2]) <= 10; };
+  for (let y = 2; y < h - 2; y++) for (let x = 2; x < w - 2; x++) {
+    let all = true;
+    for (let dy = -1; dy <= 1 && all; dy++) for (let dx = -1; dx <= 1 && all; dx++) all = near(x + dx, y + dy);
+    if (all) return [x * c.clientWidth / w, y * c.clientHeight / h];
+  }
+  return null;
+}"""
+
 #: the force scene's canvas: share of pixels unlike its corner (the
 #: background), pixels near ``rgb`` (within 10 per channel), and a hash
 _SCENE_PIXELS = """(rgb) => {
@@ -224,6 +238,15 @@ class Dashboard:
         """What the force scene's canvas shows: ``drawn`` (share of pixels
         unlike the background), ``near`` (pixels of colour ``rgb``) and a ``hash``."""
         return self.page.evaluate(_SCENE_PIXELS, list(rgb))
+
+    def scene_spot(self, rgb: tuple[int, int, int]) -> tuple[float, float] | None:
+        """Page coordinates of a point of the force scene's canvas inside a
+        3 x 3 pixel patch of colour ``rgb`` (the middle of a drawn line), or None."""
+        spot = self.page.evaluate(_SCENE_SPOT, list(rgb))
+        if spot is None:
+            return None
+        box = self.page.locator("[data-figure=force_scene] canvas").bounding_box()
+        return box["x"] + spot[0], box["y"] + spot[1]
 
     def table_text(self) -> str:
         return self.page.locator(".loadscope-table").first.inner_text()

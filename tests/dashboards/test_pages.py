@@ -109,7 +109,8 @@ def _rgb(hex_colour: str) -> tuple[int, int, int]:
 def test_scene_draws_the_drive_and_follows_slider_drag_and_reset(board):
     """The force scene's own canvas renderer: the drive and its applied-load
     arrows are on the canvas; a slider step and a drag each change the
-    picture; a double click brings back the picture from before the drag."""
+    picture; a double click brings back the picture from before the drag;
+    hovering an arrow shows its text."""
     if board.page.locator("[data-figure=force_scene]").count() == 0:
         pytest.skip(f"{board.name} shows no force scene")
     tooth = _rgb(PALETTE["applied"])
@@ -139,3 +140,11 @@ def test_scene_draws_the_drive_and_follows_slider_drag_and_reset(board):
     mouse.dblclick(x + 90, y + 30)
     board.page.wait_for_timeout(300)
     assert board.scene_pixels(tooth)["hash"] == moved["hash"]
+
+    # hover on an applied-load arrow shows that load's text (both kinds carry "|F|")
+    spot = board.scene_spot(_rgb(PALETTE["other_load"])) or board.scene_spot(tooth)
+    assert spot is not None
+    mouse.move(*spot)
+    hover = board.page.locator("[data-figure=force_scene] .loadscope-scene-hover")
+    hover.wait_for(state="visible", timeout=5_000)
+    assert "|F|" in hover.inner_text()
