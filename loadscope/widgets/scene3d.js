@@ -246,6 +246,7 @@ class SceneView {
     });
     this.title.style.cssText = `padding:8px 8px 4px;font-size:${Math.round(this.font.size * 1.35)}px;`;
     setLines(this.title, plainText(layout.title));
+    this.canvas.setAttribute("aria-label", "3D view: " + plainText(layout.title) + " (drag to turn, wheel to zoom)");
     const right = (a) => a.xanchor === "right" || a.x >= 1;
     const notes = (layout.annotations || []).filter((a) => a && a.text).sort((a, b) => right(a) - right(b));
     this.notes.textContent = "";
