@@ -19,6 +19,13 @@ from ..errors import InputError
 PRESSURE_ANGLE_RANGE = (math.radians(10.0), math.radians(35.0))
 HELIX_ANGLE_RANGE = (0.0, math.radians(45.0))
 
+# The smallest sizes, moduli and speeds the kernel takes (common practice: far below any real drive).
+# A 1 um diameter or radius, a 1 MPa modulus (softer than any shaft material) and 1e-6 rad/s (one turn
+# in about 72 days) still solve; values near 1e-300 overflow the solve's quotients and fourth powers.
+MIN_SIZE = 1e-6         # [m]
+MIN_MODULUS = 1e6       # [Pa]
+MIN_SPEED = 1e-6        # [rad/s]
+
 
 def finite(value: float, path: str, unit: str = "") -> float:
     """Reject NaN and infinities."""
@@ -44,6 +51,45 @@ def non_negative(value: float, path: str, unit: str = "") -> float:
     v = finite(value, path, unit)
     if v < 0.0:
         raise InputError(path, f"must not be negative, got {_fmt(v, unit)}", _unit_range(">= 0", unit))
+    return v
+
+
+def at_least(value: float, lo: float, path: str, unit: str = "") -> float:
+    """Require a finite value >= ``lo`` (> 0), the floor of a real drive's scale.
+
+    >>> at_least(0.03, MIN_SIZE, "shafts[0].sections[0].diameter", "m")
+    0.03
+    >>> try:
+    ...     at_least(1e-300, MIN_MODULUS, "shafts[0].E", "Pa")
+    ... except InputError as exc:
+    ...     print(exc)
+    shafts[0].E: is below the scale of any real drive, got 1e-300 Pa (accepted: >= 1e+06 Pa)
+    """
+    v = finite(value, path, unit)
+    if v < lo:
+        raise InputError(path, f"is below the scale of any real drive, got {_fmt(v, unit)}",
+                         _unit_range(f">= {lo:g}", unit))
+    return v
+
+
+def speed(value: float, path: str) -> float:
+    """A signed shaft speed [rad/s]: not zero (power flow needs a sense of
+    rotation) and at least ``MIN_SPEED`` in magnitude.
+
+    >>> speed(-152.9, "input.speed")
+    -152.9
+    >>> try:
+    ...     speed(1e-300, "cases[0].speed")
+    ... except InputError as exc:
+    ...     print(exc.accepted)
+    a magnitude >= 1e-06 rad/s, either sense
+    """
+    v = finite(value, path, "rad/s")
+    if v == 0.0:
+        raise InputError(path, "must not be zero: power flow needs a sense of rotation", "any non-zero speed")
+    if abs(v) < MIN_SPEED:
+        raise InputError(path, f"is below the scale of any real drive, got {_fmt(v, 'rad/s')}",
+                         f"a magnitude >= {MIN_SPEED:g} rad/s, either sense")
     return v
 
 

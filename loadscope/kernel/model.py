@@ -47,7 +47,7 @@ class Section:
     def __post_init__(self) -> None:
         p = self.path or "section"
         checks.positive(self.length, f"{p}.length", "m")
-        checks.positive(self.diameter, f"{p}.diameter", "m")
+        checks.at_least(checks.positive(self.diameter, f"{p}.diameter", "m"), checks.MIN_SIZE, f"{p}.diameter", "m")
         checks.non_negative(self.bore, f"{p}.bore", "m")
         if self.bore >= self.diameter:
             raise InputError(f"{p}.bore", f"must be smaller than the diameter {self.diameter:.6g} m, "
@@ -112,7 +112,8 @@ class Gear:
     def __post_init__(self) -> None:
         p = _where(self.path, "gear", self.id)
         checks.finite(self.at, f"{p}.at", "m")
-        checks.positive(self.pitch_radius, f"{p}.pitch_radius", "m")
+        checks.at_least(checks.positive(self.pitch_radius, f"{p}.pitch_radius", "m"), checks.MIN_SIZE,
+                        f"{p}.pitch_radius", "m")
         checks.within(self.pressure_angle, *checks.PRESSURE_ANGLE_RANGE, f"{p}.pressure_angle", degrees=True)
         checks.non_negative(self.weight, f"{p}.weight", "N")
         if self.kind not in ("spur", "helical", "bevel"):
@@ -163,7 +164,8 @@ class Pulley:
     def __post_init__(self) -> None:
         p = _where(self.path, "pulley", self.id)
         checks.finite(self.at, f"{p}.at", "m")
-        checks.positive(self.pitch_radius, f"{p}.pitch_radius", "m")
+        checks.at_least(checks.positive(self.pitch_radius, f"{p}.pitch_radius", "m"), checks.MIN_SIZE,
+                        f"{p}.pitch_radius", "m")
         checks.finite(self.strand_angles[0], f"{p}.strand_angles[0]", "rad")
         checks.finite(self.strand_angles[1], f"{p}.strand_angles[1]", "rad")
         checks.non_negative(self.weight, f"{p}.weight", "N")
@@ -240,8 +242,9 @@ class Shaft:
             raise InputError(f"{p}.sections", "a shaft needs at least one section", ">= 1 section")
         checks.vector3(self.origin, f"{p}.origin", "m")
         object.__setattr__(self, "axis", checks.unit_vector(self.axis, f"{p}.axis"))
-        checks.positive(self.E, f"{p}.E", "Pa")
-        checks.positive(self.G, f"{p}.G", "Pa")
+        for name in ("E", "G"):
+            checks.at_least(checks.positive(getattr(self, name), f"{p}.{name}", "Pa"), checks.MIN_MODULUS,
+                            f"{p}.{name}", "Pa")
         length = self.length
         groups: tuple[tuple[str, tuple[Element, ...]], ...] = (
             ("supports", self.supports), ("gears", self.gears), ("pulleys", self.pulleys),
@@ -415,10 +418,7 @@ class Drive:
     limits: StiffnessLimits = field(default_factory=StiffnessLimits)
 
     def __post_init__(self) -> None:
-        checks.finite(self.speed, "input.speed", "rad/s")
-        if self.speed == 0.0:
-            raise InputError("input.speed", "must not be zero: power flow needs a sense of rotation",
-                             "any non-zero speed")
+        checks.speed(self.speed, "input.speed")
         if not self.outputs:
             raise InputError("outputs", "a drive needs at least one output", ">= 1 output")
         ids = [s.id for s in self.shafts]

@@ -465,10 +465,7 @@ class LoadCase:
         _opt_positive(self.power, f"{p}.power", "W")
         _opt_positive(self.torque, f"{p}.torque", "N*m")
         if self.speed is not None:
-            checks.finite(self.speed, f"{p}.speed", "rad/s")
-            if self.speed == 0.0:
-                raise InputError(f"{p}.speed", "must not be zero: power flow needs a sense of rotation",
-                                 "any non-zero speed")
+            checks.speed(self.speed, f"{p}.speed")
 
 
 SHARE_TOLERANCE = 1e-6

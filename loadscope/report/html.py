@@ -298,7 +298,8 @@ def _figures(result: DriveResult, units: str, ratings: Any = None) -> str:
 
 # --------------------------------------------------------------------------- margins
 
-MARGIN_COLUMNS = ("kind", "component", "at", "check", "value", "allowable", "unit", "margin", "status", "method")
+MARGIN_COLUMNS = ("kind", "component", "at", "check", "value", "allowable", "unit", "margin", "status", "sizing",
+                  "method")
 
 
 def _margin(m: Any) -> _Shown | None:
@@ -313,7 +314,9 @@ def margins_section(margin_tables: Mapping[str, Sequence[Mapping[str, Any]]], un
     """The margins part of the report from plain rows: one table per load
     case (and the duty cycle), rows as :func:`loadscope.report.margins_rows`
     gives them (keys of ``MARGIN_COLUMNS``; ``margin`` a fraction, ``status``
-    pass / watch / fail). Failing and watched rows are shaded."""
+    pass / watch / fail; ``sizing`` the part's size beside the smallest that
+    meets the check, as the CLI prints it). Failing and watched rows are
+    shaded."""
     out = ['<h2 id="margins">Margins</h2>',
            "<p>The governing check of each rated component, smallest margin first. Margin: allowable / value "
            "&minus; 1 for limits not to exceed, value / allowable &minus; 1 for values to reach.</p>"]

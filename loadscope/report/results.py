@@ -83,6 +83,62 @@ def result_to_dict(result: DriveResult, units: str = "si") -> dict[str, Any]:
     return out
 
 
+def mesh_summary(result: DriveResult, mesh_id: str, units: str = "si") -> dict[str, Any]:
+    """What a drive engineer reads off one gear pair, in display units.
+
+    Keys: ``mesh``, ``kind``, ``gears`` and ``shafts`` (the two gears and
+    the shafts that carry them, in the mesh's order), ``driver`` (the gear
+    that gives power), ``rows``: ``[quantity, value, unit]`` lists of the
+    transmitted (tangential) force W_t, the radial and axial tooth forces
+    (one row each when both gears see the same, as in spur and helical
+    pairs; one per gear in a bevel pair), the power through the mesh, the
+    speed ratio n_driver / n_driven, the centre distance (or the shaft
+    angle of a bevel pair), each gear's operating pitch diameter and the
+    pitch-line speed v = |omega| r (at the mean cone radius of a bevel
+    pair). Every number is the kernel's (``result.train``, ``result.teeth``).
+
+    >>> from loadscope import solve
+    >>> from loadscope.spec import demo_snapshot, drive_from_snapshot
+    >>> s = mesh_summary(solve(drive_from_snapshot(demo_snapshot())), "stage1")
+    >>> s["shafts"], s["driver"], [r[0] for r in s["rows"]][:3]
+    (['input', 'intermediate'], 'p1', ['transmitted force W_t', 'radial force', 'axial force'])
+    """
+    flows = {fl.geometry.mesh_id: fl for fl in result.train.meshes}
+    if mesh_id not in flows:
+        from ..errors import InputError
+        raise InputError("mesh", f"no mesh {mesh_id!r} in this drive", ", ".join(flows) or "(no meshes)")
+    fl = flows[mesh_id]
+    g = fl.geometry
+    drive = result.drive
+    shafts = [drive.shafts[g.shaft[k]].id for k in (0, 1)]
+    teeth = {t.gear: t for t in result.teeth if t.mesh == mesh_id}
+    gears = [g.gear[0].id, g.gear[1].id]
+    f, L = label(units, "force"), label(units, "length")
+    rows: list[list[Any]] = [["transmitted force W_t", _v(fl.tangential, units, "force"), f]]
+    for part in ("radial", "axial"):
+        a, b = (getattr(teeth[gid], part) for gid in gears)
+        if abs(a - b) <= 1e-9 * max(abs(a), abs(b), 1e-300):
+            rows.append([f"{part} force", _v(a, units, "force"), f])
+        else:
+            rows += [[f"{part} force on {gid}", _v(v, units, "force"), f] for gid, v in zip(gears, (a, b))]
+    w_drv = float(result.train.speed[g.shaft[fl.driver]])
+    w_dvn = float(result.train.speed[g.shaft[1 - fl.driver]])
+    rows.append(["power through the mesh", _v(fl.power, units, "power"), label(units, "power")])
+    rows.append(["speed ratio n_driver / n_driven", abs(w_drv / w_dvn), "-"])
+    axes = [np.asarray(drive.shafts[g.shaft[k]].axis, dtype=float) for k in (0, 1)]
+    if g.kind == "bevel":
+        angle = float(np.arccos(np.clip(abs(float(axes[0] @ axes[1])), 0.0, 1.0)))
+        rows.append(["shaft angle", _v(angle, units, "angle"), label(units, "angle")])
+    else:
+        d = g.center[1] - g.center[0]
+        rows.append(["centre distance", _v(float(np.linalg.norm(d - (d @ axes[0]) * axes[0])), units, "length"), L])
+    rows += [[f"pitch diameter of {gid}", _v(2.0 * g.radius[k], units, "length"), L] for k, gid in enumerate(gears)]
+    v = abs(float(result.train.speed[g.shaft[0]])) * g.radius[0]
+    rows.append(["pitch-line speed", _v(v, units, "velocity"), label(units, "velocity")])
+    return {"mesh": mesh_id, "kind": g.kind, "gears": gears, "shafts": shafts, "driver": gears[fl.driver],
+            "rows": rows}
+
+
 def to_json(result: DriveResult, units: str = "si", indent: int = 2) -> str:
     """The result document as JSON text."""
     return json.dumps(result_to_dict(result, units), indent=indent)

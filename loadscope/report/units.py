@@ -2,7 +2,7 @@
 
 The kernel works in SI; these factors only turn its floats into what a
 person reads. Conversion factors are exact by definition (NIST SP 811,
-Appendix B: 1 in = 0.0254 m, 1 lbf = 4.4482216152605 N, 1 hp = 745.69987158227 W).
+Appendix B: 1 in = 0.0254 m, 1 ft = 0.3048 m, 1 lbf = 4.4482216152605 N, 1 hp = 745.69987158227 W).
 """
 
 from __future__ import annotations
@@ -23,6 +23,7 @@ SYSTEMS: dict[str, dict[str, tuple[str, float]]] = {
         "power": ("kW", 1e3),
         "angle": ("deg", math.pi / 180.0),
         "stress": ("MPa", 1e6),
+        "velocity": ("m/s", 1.0),
     },
     "us": {
         "force": ("lbf", 4.4482216152605),
@@ -34,6 +35,7 @@ SYSTEMS: dict[str, dict[str, tuple[str, float]]] = {
         "power": ("hp", 745.69987158227),
         "angle": ("deg", math.pi / 180.0),
         "stress": ("psi", 4.4482216152605 / 0.0254**2),
+        "velocity": ("ft/min", 0.3048 / 60.0),
     },
 }
 

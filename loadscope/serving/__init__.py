@@ -10,6 +10,9 @@ there would shadow the ``voila`` package inside every kernel):
   the notebook folder;
 * one warm kernel per dashboard kept ready (``--pool``), so a page does not
   wait for a kernel to start and the notebook to run;
+* a cell's output is awaited up to 60 s after the kernel's reply
+  (``VoilaExecutor.iopub_timeout``; the default 4 s lost the output, and the
+  page stayed blank, when many pages opened at once on a busy machine);
 * a closed page's kernel stops at once (its shutdown beacon works, see
   :mod:`loadscope.serving.app`); a kernel that lost its page anyway is culled
   after 10 idle minutes.

@@ -33,6 +33,7 @@ from typing import Any, Literal
 from pydantic import BaseModel, Field, ValidationError
 
 from ..errors import InputError
+from ..kernel import checks
 from ..kernel.model import Bolt, Coupling, Drive, Gear, Housing, Mesh, PointLoad, Port, Pulley, Section, Shaft, Support
 from . import ratingspec as rs
 from .fields import (
@@ -364,7 +365,8 @@ def _radius(spec: GearSpec | PulleySpec, p: str) -> float:
     if spec.pitch_diameter is not None:
         if not spec.pitch_diameter > 0.0:
             raise InputError(f"{p}.pitch_diameter", f"must be positive, got {spec.pitch_diameter:.6g} m", "> 0 m")
-        return spec.pitch_diameter / 2.0
+        # the kernel's floor on the radius, named as the user wrote it
+        return checks.at_least(spec.pitch_diameter, 2.0 * checks.MIN_SIZE, f"{p}.pitch_diameter", "m") / 2.0
     if spec.pitch_radius is None:
         raise InputError(f"{p}.pitch_radius", "is required (or give pitch_diameter)",
                          DIMENSIONS["length"].accepted)

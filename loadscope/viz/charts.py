@@ -16,7 +16,7 @@ bar values change with the parameters (see :func:`loadscope.viz.figure_update`).
 from __future__ import annotations
 
 import re
-from collections.abc import Mapping
+from collections.abc import Collection, Iterable, Mapping
 from typing import Any
 
 import numpy as np
@@ -27,6 +27,7 @@ from ..errors import InputError
 from ..kernel.model import Support
 from ..kernel.solve import DriveResult, ShaftResult
 from ..report.units import convert, label, system
+from .focus import kept, shaft_focus
 from .style import CASE_PATTERNS, PALETTE, SERIES, SIZES, axis_2d, base_layout, caution_annotation, number
 
 FloatArray = NDArray[np.float64]
@@ -74,15 +75,15 @@ def _case_list(result: DriveResult, cases: Mapping[str, DriveResult] | None) -> 
 
 
 def _bar_traces(result: DriveResult, units: str, parts: str, cases: Mapping[str, DriveResult] | None,
-                xaxis: str, yaxis: str) -> list[dict[str, Any]]:
+                xaxis: str, yaxis: str, focus: Collection[str]) -> list[dict[str, Any]]:
     if parts not in PARTS_CHOICES:
         raise InputError("parts", f"unknown choice {parts!r}", ", ".join(PARTS_CHOICES))
     fu = label(units, "force")
-    cats = [f"{s} · {b}" for s, b in _bearings(result)]
+    cats = [f"{s} · {b}" for s, b in _bearings(result) if s in focus]
     traces = []
     for ci, (case, r) in enumerate(_case_list(result, cases)):
         values: dict[str, list[float]] = {k: [] for k in _PART_KEYS[parts]}
-        for sr in r.shafts:
+        for sr in kept(r, focus):
             sol = sr.solution
             for rl, rg in zip(sol.reactions_local, sol.reactions_global):
                 if parts == "radial_axial":
@@ -107,9 +108,10 @@ def _bar_traces(result: DriveResult, units: str, parts: str, cases: Mapping[str,
 
 
 def reaction_bars(result: DriveResult, units: str = "si", parts: str = "radial_axial",
-                  cases: Mapping[str, DriveResult] | None = None) -> dict[str, Any]:
+                  cases: Mapping[str, DriveResult] | None = None,
+                  shafts: Iterable[str] | None = None) -> dict[str, Any]:
     """Grouped bars of every bearing reaction (force of the support on the
-    shaft).
+    shaft), or of the bearings of a few shafts.
 
     Parameters
     ----------
@@ -126,6 +128,8 @@ def reaction_bars(result: DriveResult, units: str = "si", parts: str = "radial_a
         same bearings; when given, exactly these are drawn (in order, one
         fill pattern each) and ``result`` only fixes the categories. ``None``
         draws ``result`` alone.
+    shafts : iterable of str or None
+        Draw only the bearings of these shafts (ids); ``None``: every bearing.
 
     Returns
     -------
@@ -140,16 +144,22 @@ def reaction_bars(result: DriveResult, units: str = "si", parts: str = "radial_a
     >>> spec = reaction_bars(solve(drive_from_snapshot(demo_snapshot())), units="us")
     >>> [t["name"] for t in spec["data"]], spec["layout"]["yaxis"]["title"]["text"]
     (['radial', 'axial (along the shaft axis)'], 'reaction on the shaft [lbf]')
+    >>> reaction_bars(solve(drive_from_snapshot(demo_snapshot())), shafts=["output"])["data"][0]["x"]
+    ['output · E', 'output · F']
     """
     system(units)
-    data = _bar_traces(result, units, parts, cases, "x", "y")
+    focus = shaft_focus(result, shafts)
+    data = _bar_traces(result, units, parts, cases, "x", "y", focus)
     layout = base_layout(SIZES["bars_height"])
     layout["margin"] = {"l": 70, "r": 30, "t": 60, "b": 110}
-    layout.update({"title": {"text": f"Bearing reactions [{label(units, 'force')}]"}, "barmode": "group",
+    title = f"Bearing reactions [{label(units, 'force')}]" + ("" if shafts is None else " · shafts "
+                                                               + ", ".join(focus))
+    layout.update({"title": {"text": title}, "barmode": "group",
                    "xaxis": axis_2d("bearing (shaft · support)"),
                    "yaxis": axis_2d(f"reaction on the shaft [{label(units, 'force')}]"),
                    "annotations": [caution_annotation(-62)],
-                   "meta": {"figure": "reaction_bars", "units": units, "parts": parts, "caution": CAUTION}})
+                   "meta": {"figure": "reaction_bars", "units": units, "parts": parts,
+                            "shafts": None if shafts is None else list(focus), "caution": CAUTION}})
     return {"data": data, "layout": layout}
 
 
@@ -307,7 +317,7 @@ def dashboard_figure(result: DriveResult, shaft_id: str, units: str = "si",
     """
     system(units)
     rows = len(DIAGRAM_ROWS)
-    bars = _bar_traces(result, units, parts, None, "x", "y")
+    bars = _bar_traces(result, units, parts, None, "x", "y", shaft_focus(result, None))
     domains = _domains([1.4] + [1.0] * rows, [0.09] + [SIZES["row_gap"]] * (rows - 1))
     traces, axes, shapes, labels = _diagram_panel(result, shaft_id, units, 2, domains[1:])
     fu = label(units, "force")

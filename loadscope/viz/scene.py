@@ -43,6 +43,7 @@ head vertices.
 from __future__ import annotations
 
 import math
+from collections.abc import Collection, Iterable
 from typing import Any
 
 import numpy as np
@@ -53,6 +54,8 @@ from ..errors import InputError
 from ..kernel.model import Shaft
 from ..kernel.solve import DriveResult
 from ..report.units import convert, label, system
+from .focus import kept as kept_shafts
+from .focus import shaft_focus
 from .style import PALETTE, SIZES, axis_3d, base_layout, caution_annotation, number
 
 FloatArray = NDArray[np.float64]
@@ -175,13 +178,17 @@ def _xyz(f: FloatArray, units: str) -> str:
     return f"x {number(c[0])}, y {number(c[1])}, z {number(c[2])} {fu}"
 
 
-def _load_arrows(result: DriveResult, units: str) -> dict[str, tuple[FloatArray, FloatArray, list[str]]]:
-    """Tails [m], force vectors [N] and hover texts of each arrow group."""
+def _load_arrows(result: DriveResult, units: str,
+                 kept: Collection[str]) -> dict[str, tuple[FloatArray, FloatArray, list[str]]]:
+    """Tails [m], force vectors [N] and hover texts of each arrow group, of
+    the shafts in ``kept``."""
     fu = label(units, "force")
     tails = []
     forces = []
     texts = []
     for t in result.teeth:
+        if t.shaft not in kept:
+            continue
         tails.append(t.point)
         forces.append(t.force)
         texts.append(f"{t.mesh} · {t.gear} ({t.role}, shaft {t.shaft})<br>"
@@ -192,7 +199,7 @@ def _load_arrows(result: DriveResult, units: str) -> dict[str, tuple[FloatArray,
                      f"{_xyz(t.force, units)}")
     groups = {"tooth": (np.asarray(tails).reshape(-1, 3), np.asarray(forces).reshape(-1, 3), texts)}
     tails, forces, texts = [], [], []
-    for sr in result.shafts:
+    for sr in kept_shafts(result, kept):
         sh = result.drive.shaft(sr.id)
         sol = sr.solution
         origin = np.asarray(sh.origin, dtype=float)
@@ -210,7 +217,7 @@ def _load_arrows(result: DriveResult, units: str) -> dict[str, tuple[FloatArray,
                          f"{_xyz(rg, units)}")
     groups["reaction"] = (np.asarray(tails).reshape(-1, 3), np.asarray(forces).reshape(-1, 3), texts)
     tails, forces, texts = [], [], []
-    for sr in result.shafts:
+    for sr in kept_shafts(result, kept):
         for a in sr.actions:
             if a.kind not in ("strand", "load"):
                 continue
@@ -224,10 +231,10 @@ def _load_arrows(result: DriveResult, units: str) -> dict[str, tuple[FloatArray,
     return groups
 
 
-def _gear_geometry(result: DriveResult) -> list[tuple[str, FloatArray, FloatArray, float]]:
-    """(hover text, centre [m], frame, radius [m]) of every gear and pulley;
-    meshed gears use the operating pitch radius, so the ring passes through
-    the pitch point."""
+def _gear_geometry(result: DriveResult, kept: Collection[str]) -> list[tuple[str, FloatArray, FloatArray, float]]:
+    """(hover text, centre [m], frame, radius [m]) of every gear and pulley
+    of the shafts in ``kept``; meshed gears use the operating pitch radius,
+    so the ring passes through the pitch point."""
     operating: dict[tuple[str, str], tuple[float, FloatArray]] = {}
     for fl in result.train.meshes:
         g = fl.geometry
@@ -235,7 +242,7 @@ def _gear_geometry(result: DriveResult) -> list[tuple[str, FloatArray, FloatArra
             sid = result.drive.shafts[g.shaft[k]].id
             operating[(sid, g.gear[k].id)] = (g.radius[k], g.center[k])
     out = []
-    for sr in result.shafts:
+    for sr in kept_shafts(result, kept):
         sh = result.drive.shaft(sr.id)
         frame = sr.solution.frame
         origin = np.asarray(sh.origin, dtype=float)
@@ -249,7 +256,7 @@ def _gear_geometry(result: DriveResult) -> list[tuple[str, FloatArray, FloatArra
 
 
 def force_scene(result: DriveResult, units: str = "si", show: str = "applied",
-                arrow_scale: float | None = None) -> dict[str, Any]:
+                arrow_scale: float | None = None, shafts: Iterable[str] | None = None) -> dict[str, Any]:
     """The 3D scene of a solved drive with its force arrows.
 
     Parameters
@@ -268,6 +275,14 @@ def force_scene(result: DriveResult, units: str = "si", show: str = "applied",
         Arrow length per force [m/N], independent of ``units``; ``None``
         scales the largest force to ``SIZES["arrow_share"]`` of the drive's
         size. The scale used is returned in ``layout["meta"]["arrow_scale"]``.
+    shafts : iterable of str or None
+        The shafts to draw (ids); ``None`` draws the whole drive. With a
+        choice, only those shafts are drawn with their gears, pulleys and
+        bearings, and only the arrows acting on them (every tooth force,
+        reaction, strand pull and load on those shafts); the mounting bolts
+        (the housing's) are left out. The automatic arrow scale and the
+        drive's size then come from what is drawn. The trace order stays as
+        below (the shaft traces are those of the chosen shafts).
 
     Returns
     -------
@@ -284,6 +299,9 @@ def force_scene(result: DriveResult, units: str = "si", show: str = "applied",
     ['gears and pulleys', 'gears and pulleys', 'bearings', 'mounting bolts', 'tooth forces']
     >>> spec["layout"]["scene"]["camera"]["up"]
     {'x': 0.0, 'y': 1.0, 'z': 0.0}
+    >>> pair = force_scene(solve(drive_from_snapshot(demo_snapshot())), shafts=["input", "intermediate"])
+    >>> [t["hovertext"].split(":")[0] for t in pair["data"][:2]], pair["layout"]["meta"]["shafts"]
+    (['shaft input', 'shaft intermediate'], ['input', 'intermediate'])
     """
     system(units)
     if show not in SHOW_CHOICES:
@@ -292,6 +310,7 @@ def force_scene(result: DriveResult, units: str = "si", show: str = "applied",
                                     or not math.isfinite(arrow_scale) or arrow_scale <= 0.0):
         raise InputError("arrow_scale", f"must be a positive finite number or None, got {arrow_scale!r}",
                          "> 0 m/N, or None for automatic")
+    focus = shaft_focus(result, shafts)
     lu = label(units, "length")
     fu = label(units, "force")
 
@@ -301,7 +320,7 @@ def force_scene(result: DriveResult, units: str = "si", show: str = "applied",
     data: list[dict[str, Any]] = []
     hardware: list[FloatArray] = []
     sides = int(SIZES["shaft_sides"])
-    for n, sr in enumerate(result.shafts):
+    for n, sr in enumerate(kept_shafts(result, focus)):
         sh = result.drive.shaft(sr.id)
         verts, ii, jj, kk = _shaft_surface(sh, sr.solution.frame, sides)
         hardware.append(verts)
@@ -318,7 +337,7 @@ def force_scene(result: DriveResult, units: str = "si", show: str = "applied",
     discs_v = []
     rings = []
     ring_text: list[str] = []
-    for text, c, fr, r in _gear_geometry(result):
+    for text, c, fr, r in _gear_geometry(result, focus):
         pts = _ring(c, fr[1], fr[2], r, ring_sides)
         discs_v.append(np.vstack([c[None, :], pts]))
         rings.append(pts)
@@ -341,7 +360,7 @@ def force_scene(result: DriveResult, units: str = "si", show: str = "applied",
 
     b_rings = []
     b_text: list[str] = []
-    for sr in result.shafts:
+    for sr in kept_shafts(result, focus):
         sh = result.drive.shaft(sr.id)
         fr = sr.solution.frame
         origin = np.asarray(sh.origin, dtype=float)
@@ -359,7 +378,8 @@ def force_scene(result: DriveResult, units: str = "si", show: str = "applied",
                  "hoverinfo": "text", "hovertext": b_text})
 
     h = result.housing
-    bolts = result.drive.housing.bolts if result.drive.housing is not None else ()
+    # the bolts hold the housing, not the shafts: drawn with the whole drive only
+    bolts = result.drive.housing.bolts if result.drive.housing is not None and shafts is None else ()
     bp = np.array([b.position for b in bolts], dtype=float).reshape(-1, 3)
     if bp.size:
         hardware.append(bp)
@@ -378,7 +398,7 @@ def force_scene(result: DriveResult, units: str = "si", show: str = "applied",
 
     box = np.vstack(hardware)
     size_m = float((box.max(axis=0) - box.min(axis=0)).max())
-    groups = _load_arrows(result, units)
+    groups = _load_arrows(result, units, focus)
     f_max = max(float(np.linalg.norm(g[1], axis=1).max(initial=0.0)) for g in groups.values())
     scale = arrow_scale if arrow_scale is not None else (SIZES["arrow_share"] * size_m / f_max if f_max > 0 else 0.0)
     size = float(convert(size_m, units, "length"))
@@ -399,7 +419,8 @@ def force_scene(result: DriveResult, units: str = "si", show: str = "applied",
     per_unit = 1.0 / float(convert(scale, units, "length") / convert(1.0, units, "force")) if scale > 0 else 0.0
     layout = base_layout(SIZES["scene_height"])
     layout.update({
-        "title": {"text": f"Forces [{fu}] · {result.drive.name or 'drive'}", "x": 0.01, "xanchor": "left"},
+        "title": {"text": f"Forces [{fu}] · {result.drive.name or 'drive'}"
+                          + ("" if shafts is None else " · shafts " + ", ".join(focus)), "x": 0.01, "xanchor": "left"},
         "uirevision": "force_scene",
         "margin": {"l": 0, "r": 0, "t": 80, "b": 40},
         "legend": {**layout["legend"], "orientation": "h", "x": 0.0, "y": 1.0, "yanchor": "bottom"},
@@ -414,7 +435,8 @@ def force_scene(result: DriveResult, units: str = "si", show: str = "applied",
             caution_annotation(),
         ],
         "meta": {"figure": "force_scene", "units": units, "show": show, "arrow_scale": scale,
-                 "arrow_scale_unit": "m/N", "size": size, "caution": CAUTION},
+                 "arrow_scale_unit": "m/N", "size": size,
+                 "shafts": None if shafts is None else list(focus), "caution": CAUTION},
     })
     return {"data": data, "layout": layout}
 

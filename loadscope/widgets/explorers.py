@@ -5,8 +5,10 @@
   reaction bars, the diagrams of a chosen shaft, every load table;
 * :class:`ShaftExplorer` - one shaft: its parameters and the drive's, its
   diagrams, the reaction bars and its loads;
-* :class:`MeshExplorer` - one gear pair: its parameters and the drive's, the
-  force scene, the reaction bars and the pair's tooth forces.
+* :class:`MeshExplorer` - one gear pair, chosen among the drive's meshes:
+  its parameters and the drive's, the pair's readouts (tooth forces,
+  ratio, centre distance, pitch-line speed), the force scene and the
+  reaction bars of the pair's two shafts, their loads and tooth forces.
 
 Each opens on the demo drive when given nothing, and on any snapshot (a
 dict, JSON text, a file path, or a Drive) when given one. A snapshot that is
@@ -24,8 +26,19 @@ import ipywidgets as W
 
 from .. import CAUTION
 from ..errors import InputError
+from ..kernel.solve import DriveResult
 from .panel import ParameterPanel
-from .parts import STYLE_HTML, DiagramView, ForceView, LoadTable, MarginTable, MessageBar, ReactionView, UnitsToggle
+from .parts import (
+    STYLE_HTML,
+    DiagramView,
+    ForceView,
+    LoadTable,
+    MarginTable,
+    MessageBar,
+    PairReadout,
+    ReactionView,
+    UnitsToggle,
+)
 from .snapshot import SnapshotBar
 from .state import DriveSource, ExplorerState
 
@@ -118,10 +131,16 @@ class ShaftExplorer(_Explorer):
 
 class MeshExplorer(_Explorer):
     """One gear pair: its parameters (pressure angle, helix angle, pitch
-    radius, efficiency) and the drive's speed and power, the force scene,
-    the reaction bars and the pair's tooth forces.
+    radius, efficiency) and the drive's speed and power; the pair's
+    readouts (transmitted, radial and axial tooth force, power, speed
+    ratio, centre distance, pitch diameters, pitch-line speed); the force
+    scene of the two shafts that carry the pair's gears (their gears,
+    bearings and every arrow acting on them); the reaction bars of those
+    shafts' bearings; their speeds, torques and reactions and the pair's
+    tooth forces in the table.
 
-    ``mesh`` is the mesh's id (default: the first mesh)."""
+    ``mesh`` is the mesh's id (default: the first mesh); the drop-down
+    ``mesh`` switches to another mesh of the drive."""
 
     def __init__(self, source: DriveSource = None, mesh: str | None = None, units: str = "si",
                  rating: str = "off") -> None:
@@ -132,12 +151,55 @@ class MeshExplorer(_Explorer):
         mesh = ids[0] if mesh is None else mesh
         if mesh not in ids:
             raise InputError("mesh", f"no mesh {mesh!r} in this drive", ", ".join(ids))
-        self.mesh_id = mesh
-        self.forces = ForceView(state)
-        self.reactions = ReactionView(state)
-        self.table = LoadTable(state, shafts=(), meshes=(mesh,))
-        super().__init__(state, lambda g: g in ("drive", f"mesh {mesh}"),
-                         [self.forces, self.table, self.reactions])
+        self.mesh = W.Dropdown(options=ids, value=mesh, description="mesh")
+        self.mesh.add_class("loadscope-mesh-choice")
+        self.pair = PairReadout(state, self._mesh_of)
+        self.forces = ForceView(state, self._shafts_of)
+        self.reactions = ReactionView(state, self._shafts_of)
+        self.table = LoadTable(state, shafts=self._shafts_of(state.result) or (), meshes=(mesh,))
+        super().__init__(state, self._groups, [self.mesh, self.pair, self.forces, self.table, self.reactions])
+        self.mesh.observe(self._refocus, "value")
+        state.observe(self._new_drive, "topology")
+
+    @property
+    def mesh_id(self) -> str | None:
+        """The mesh shown (None when an opened drive has no mesh)."""
+        return self._mesh_of(self.state.result)
+
+    def _mesh_of(self, result: DriveResult) -> str | None:
+        # read from the result drawn: a new drive's notice may come after its result's
+        ids = [m.id for m in result.drive.meshes]
+        return self.mesh.value if self.mesh.value in ids else (ids[0] if ids else None)
+
+    def _shafts_of(self, result: DriveResult) -> tuple[str, ...] | None:
+        mesh = self._mesh_of(result)
+        if mesh is None:
+            return None
+        gears = next(m.gears for m in result.drive.meshes if m.id == mesh)
+        return tuple(s.id for s in result.drive.shafts if any(g.id in gears for g in s.gears))
+
+    def _groups(self, group: str) -> bool:
+        return group in ("drive", f"mesh {self._mesh_of(self.state.result)}")
+
+    def _refocus(self, change: Any = None) -> None:
+        mesh = self.mesh_id
+        self.table.refocus(self._shafts_of(self.state.result) or (), () if mesh is None else (mesh,))
+        self.pair.redraw()
+        self.forces.redraw()
+        self.reactions.redraw()
+        if change is not None:          # a choice in the drop-down (a new drive rebuilds the panel itself)
+            self.panel.regroup(self._groups)
+
+    def _new_drive(self, _change: Any) -> None:
+        ids = [m.id for m in self.state.drive.meshes]
+        keep = self.mesh.value if self.mesh.value in ids else (ids[0] if ids else None)
+        self.mesh.unobserve(self._refocus, "value")
+        try:
+            self.mesh.options = ids                    # (this selects the first option ...)
+            self.mesh.value = keep                     # (... so the choice is put back)
+        finally:
+            self.mesh.observe(self._refocus, "value")
+        self._refocus(None)
 
     @property
     def plots(self) -> list[Any]:

@@ -171,7 +171,12 @@ class ParameterPanel(W.VBox):
         box.children = [*(c.input for c in made), W.HTML("<div class='loadscope-note'>" + "<br>".join(notes)
                                                           + "</div>")]
 
-    def _rebuild(self, _change: dict) -> None:
+    def regroup(self, groups: Callable[[str], bool] | None) -> None:
+        """Show other groups (``groups`` as in the constructor): the panel is made again."""
+        self._keep = groups or (lambda g: True)
+        self._rebuild(None)
+
+    def _rebuild(self, _change: dict | None) -> None:
         # close the old controls' models, or every import would leave them open in the kernel and page
         old_acc, old_boxes = self._acc, list(self._boxes.values())
         self._build()

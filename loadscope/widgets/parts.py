@@ -6,6 +6,7 @@ mechanics.
 * :class:`ForceView` - the 3D force scene, applied loads / reactions / both
 * :class:`ReactionView` - bearing reaction bars, radial/axial or x, y, z,
   the current state beside the pinned one
+* :class:`PairReadout` - one gear pair's tooth forces and geometry
 * :class:`DiagramView` - shear, bending, torque, deflection of a chosen shaft
 * :class:`LoadTable` - tables of every load, with the change from the pinned
   state beside each value
@@ -18,6 +19,7 @@ from __future__ import annotations
 
 import html
 import math
+from collections.abc import Callable
 from typing import Any
 
 import ipywidgets as W
@@ -25,7 +27,7 @@ import ipywidgets as W
 from .. import CAUTION
 from ..kernel.ratings import DUTY_CYCLE
 from ..kernel.solve import DriveResult
-from ..report import case_names, margins_rows, table_rows
+from ..report import case_names, margins_rows, mesh_summary, table_rows
 from ..report.units import label
 from ..viz import force_scene, reaction_bars, shaft_diagrams
 from ..viz.style import PALETTE, number
@@ -37,6 +39,13 @@ UNIT_CHOICES = (("SI · N, mm, N·m, kW", "si"), ("US · lbf, in, lbf·in, hp", 
 SHOW_LABELS = (("applied loads", "applied"), ("reactions", "reactions"), ("both", "both"))
 PARTS_LABELS = (("radial and axial", "radial_axial"), ("x, y, z parts", "components"))
 BARS_LABELS = (("this state", "state"), ("load cases", "cases"))
+
+#: the shafts a figure draws, read from the result shown: ids, or None for the whole drive
+Focus = Callable[[DriveResult], tuple[str, ...] | None]
+
+
+def _whole_drive(_result: DriveResult) -> None:
+    return None
 
 
 class UnitsToggle(W.ToggleButtons):
@@ -68,10 +77,14 @@ class MessageBar(W.HTML):
 
 class ForceView(W.VBox):
     """The 3D drive with its force arrows. The arrow scale [m/N] is fixed
-    when the drive opens, so arrows grow and shrink as loads change."""
+    when the drive opens (or the focus moves to other shafts), so arrows
+    grow and shrink as loads change. ``focus`` gives the shafts to draw for
+    a result (None: the whole drive)."""
 
-    def __init__(self, state: ExplorerState) -> None:
+    def __init__(self, state: ExplorerState, focus: Focus = _whole_drive) -> None:
         self.state = state
+        self.focus = focus
+        self._shafts: tuple[str, ...] | None = None
         self.show = W.ToggleButtons(options=SHOW_LABELS, value="applied", description="arrows",
                                     style={"button_width": "110px"})
         self._scale: float | None = None
@@ -83,9 +96,10 @@ class ForceView(W.VBox):
         state.observe(self.redraw, ["result", "units"])
 
     def _spec(self) -> dict[str, Any]:
-        if self._topology != self.state.topology:      # another drive: a fresh arrow scale
-            self._topology, self._scale = self.state.topology, None
-        spec = force_scene(self.state.result, self.state.units, self.show.value, self._scale)
+        shafts = self.focus(self.state.result)
+        if self._topology != self.state.topology or shafts != self._shafts:    # a fresh arrow scale
+            self._topology, self._shafts, self._scale = self.state.topology, shafts, None
+        spec = force_scene(self.state.result, self.state.units, self.show.value, self._scale, shafts)
         self._scale = spec["layout"]["meta"]["arrow_scale"] or None
         return spec
 
@@ -103,10 +117,12 @@ class ReactionView(W.VBox):
     ``bars`` chooses what is drawn: ``"state"`` - the current state, and the
     pinned one beside it (hatched) when there is one; ``"cases"`` - one set of
     bars per load case of the drive (from the last rating; the note says
-    when the rating is still to come)."""
+    when the rating is still to come). ``focus`` gives the shafts whose
+    bearings are drawn (None: every bearing)."""
 
-    def __init__(self, state: ExplorerState) -> None:
+    def __init__(self, state: ExplorerState, focus: Focus = _whole_drive) -> None:
         self.state = state
+        self.focus = focus
         self.parts = W.ToggleButtons(options=PARTS_LABELS, value="radial_axial", description="show",
                                      style={"button_width": "130px"})
         self.bars = W.ToggleButtons(options=BARS_LABELS, value="state", description="bars",
@@ -141,7 +157,7 @@ class ReactionView(W.VBox):
             self.note.value = f"<span class='loadscope-note'>{text}</span>" if text else ""
         else:
             self.note.value = ""
-        return reaction_bars(st.result, st.units, self.parts.value, self.cases())
+        return reaction_bars(st.result, st.units, self.parts.value, self.cases(), self.focus(st.result))
 
     def _state_changed(self, _change: Any) -> None:
         self.redraw()
@@ -203,7 +219,7 @@ def _delta_text(d: float) -> str:
 Table = tuple[list[str], list[list[Any]]]
 
 
-def _table_html(name: str, now: Table, pinned: Table | None, keep: Any) -> str:
+def _table_html(name: str, now: Table, pinned: Table | None, keep: Any, title: str | None = None) -> str:
     cols, rows = now
     ids = [j for j, v in enumerate(rows[0]) if isinstance(v, str)] if rows else []
     shown = [r for r in rows if keep({cols[j]: r[j] for j in ids})]
@@ -226,7 +242,7 @@ def _table_html(name: str, now: Table, pinned: Table | None, keep: Any) -> str:
                 text += f"<span class='d'>{_delta_text(float(v) - float(old[j]))}</span>"
             cells.append(f"<td class='n'>{text}</td>")
         body.append("<tr>" + "".join(cells) + "</tr>")
-    title = html.escape(TABLE_TITLES.get(name, name))
+    title = html.escape(title or TABLE_TITLES.get(name, name))
     return f"<table data-table='{name}'><caption>{title}</caption><tr>{head}</tr>{''.join(body)}</table>"
 
 
@@ -254,6 +270,11 @@ class LoadTable(W.HTML):
         import pandas as pd
 
         return {k: pd.DataFrame(rows, columns=cols) for k, (cols, rows) in self.tables.items()}
+
+    def refocus(self, shafts: tuple[str, ...] | None, meshes: tuple[str, ...] | None) -> None:
+        """Show only the rows of these shafts / meshes (None: all) and redraw."""
+        self._shafts, self._meshes = shafts, meshes
+        self.redraw()
 
     def _keep(self, name: str) -> Any:
         if name in ("shafts", "reactions") and self._shafts is not None:
@@ -283,6 +304,39 @@ class LoadTable(W.HTML):
         self.value = pin + "".join(parts) + f"<p class='caution'>Caution: {html.escape(CAUTION)}</p>"
 
 
+class PairReadout(W.HTML):
+    """One gear pair at a glance (``loadscope.report.mesh_summary``): the
+    transmitted, radial and axial tooth force, the power through the mesh,
+    the speed ratio, the centre distance, the pitch diameters and the
+    pitch-line speed, in the chosen units; with a pinned state, each value's
+    change from it. ``mesh`` gives the mesh id for a result (None: no pair)."""
+
+    def __init__(self, state: ExplorerState, mesh: Callable[[DriveResult], str | None]) -> None:
+        super().__init__()
+        self.add_class("loadscope-table")
+        self.state = state
+        self.mesh = mesh
+        self.summary: dict[str, Any] | None = None
+        state.observe(self.redraw, ["result", "units", "pinned"])
+        self.redraw()
+
+    def redraw(self, _change: Any = None) -> None:
+        st = self.state
+        mesh = self.mesh(st.result)
+        if mesh is None:
+            self.summary = None
+            self.value = "<p class='pin'>This drive has no gear mesh.</p>"
+            return
+        self.summary = s = mesh_summary(st.result, mesh, st.units)
+        pinned = None
+        if st.pinned is not None and mesh in {fl.geometry.mesh_id for fl in st.pinned.train.meshes}:
+            pinned = (["quantity", "value", "unit"], mesh_summary(st.pinned, mesh, st.units)["rows"])
+        gears = " / ".join(f"{g} on {sh}" for g, sh in zip(s["gears"], s["shafts"]))
+        title = f"pair {mesh}: {gears}, {s['kind']}, driver {s['driver']}"
+        self.value = _table_html("pair", (["quantity", "value", "unit"], s["rows"]), pinned, lambda row: True,
+                                 title)
+
+
 def _margin_text(m: float) -> str:
     if math.isinf(m):
         return "unloaded"
@@ -299,7 +353,10 @@ class MarginTable(W.VBox):
     the governing check of each, smallest margin first) for the duty cycle or
     one load case, chosen in the drop-down. Margins come from the last rating
     (see :class:`~loadscope.widgets.state.ExplorerState`); a note says when
-    the controls have moved since. ``shafts`` keeps the rows of those shafts."""
+    the controls have moved since. ``shafts`` keeps the rows of those shafts.
+    The sizing column puts each part's size beside the smallest that meets
+    its target (``loadscope.report.margins.sizing``: a section's d and
+    d_min, a bearing's C and the C needed, or C0 and the C0 needed)."""
 
     def __init__(self, state: ExplorerState, shafts: tuple[str, ...] | None = None) -> None:
         self.state = state
@@ -340,7 +397,7 @@ class MarginTable(W.VBox):
         self.rows = rows
         lu = html.escape(label(st.units, "length"))
         head = "".join(f"<th>{h}</th>" for h in ("component", "kind", f"at [{lu}]", "check", "value", "allowable",
-                                                 "unit", "margin", "status"))
+                                                 "unit", "margin", "status", "sizing"))
         body = []
         for r in rows:
             at = "" if r["at"] is None else number(r["at"])
@@ -350,7 +407,8 @@ class MarginTable(W.VBox):
                         f"<td>{html.escape(r['component'])}</td><td>{html.escape(r['kind'])}</td>"
                         f"<td class='n'>{at}</td><td>{html.escape(r['check'])}</td><td class='n'>{value}</td>"
                         f"<td class='n'>{allow}</td><td>{html.escape(r['unit'])}</td>"
-                        f"<td class='n'>{_margin_text(r['margin'])}</td><td>{html.escape(r['status'])}</td></tr>")
+                        f"<td class='n'>{_margin_text(r['margin'])}</td><td>{html.escape(r['status'])}</td>"
+                        f"<td class='sizing'>{html.escape(r['sizing'])}</td></tr>")
         caption = html.escape(f"Margins, {self.case.value}: governing check of each component, smallest first "
                               "(hover a row for its method)")
         self.html.value = (note + f"<table data-table='margins'><caption>{caption}</caption><tr>{head}</tr>"

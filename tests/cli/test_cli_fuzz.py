@@ -233,8 +233,16 @@ def _edit(**where) -> bytes:
     (_edit(shafts__0__sections__0__diameter="1e300 mm"), "shafts[0].sections[0].diameter: is beyond the scale"),
     (_edit(housing__bolts__0__position=["1e300 mm", "0 mm", "0 mm"]), "housing.bolts[0].position[0]: is beyond"),
     (_edit(cases__0__power="1e300 kW"), "cases[0].power: is beyond the scale of any drive"),
-    (_edit(shafts__0__E="1e-300 Pa"), OUT_OF_RANGE),          # NaN reached the table before
-    (_edit(cases__0__speed="1e-300 rpm"), ""),
+    # tiny moduli, speeds and sizes overflowed the solve and were reported without the field's name before
+    (_edit(shafts__0__E="1e-300 Pa"), "shafts[0].E: is below the scale of any real drive, got 1e-300 Pa "
+                                      "(accepted: >= 1e+06 Pa)"),
+    (_edit(shafts__1__G="1e-300 GPa"), "shafts[1].G: is below the scale of any real drive"),
+    (_edit(input__speed="1e-300 rpm"), "input.speed: is below the scale of any real drive, got 1.0472e-301 rad/s "
+                                       "(accepted: a magnitude >= 1e-06 rad/s, either sense)"),
+    (_edit(cases__0__speed="-1e-300 rpm"), "cases[0].speed: is below the scale of any real drive"),
+    (_edit(shafts__0__sections__1__diameter="1e-300 mm"), "shafts[0].sections[1].diameter: is below the scale of "
+                                                          "any real drive, got 1e-303 m (accepted: >= 1e-06 m)"),
+    (_edit(shafts__2__pulleys__0__pitch_diameter="1e-300 mm"), "shafts[2].pulleys[0].pitch_diameter: is below"),
 ])
 def test_inputs_that_once_escaped_end_in_one_line(data, expect):
     status, out, err = run(data)

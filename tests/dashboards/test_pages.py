@@ -64,6 +64,25 @@ def test_slider_changes_the_numbers_and_every_plot(board):
     board.settle()
 
 
+def test_gear_pair_shows_its_pair_and_switches_to_another(board):
+    if board.name != "gear_pair":
+        pytest.skip("the gear-pair dashboard's own controls")
+    pair = board.page.locator("table[data-table='pair'] caption")
+    assert pair.inner_text().startswith("pair stage1: p1 on input / g2 on intermediate")
+    revs = board.revs()
+    board.page.locator(".loadscope-mesh-choice select").select_option("stage2")
+    board.wait_revs_above(revs)                      # both figures redrawn for the other pair
+    board.page.wait_for_function(
+        "() => document.querySelector(\"table[data-table='pair'] caption\").innerText.startsWith('pair stage2')",
+        timeout=20_000)
+    assert "g4 on output" in pair.inner_text()
+    assert board.figure_errors() == []
+    revs = board.revs()
+    board.page.locator(".loadscope-mesh-choice select").select_option("stage1")    # as it opened, for the tests after
+    board.wait_revs_above(revs)
+    board.settle()
+
+
 def test_snapshot_saves_and_opens_back(board, tmp_path):
     saved_table, saved_readout = board.table_text(), board.readout(SLIDER)
     file = board.save_snapshot(tmp_path / "saved.json")

@@ -241,3 +241,30 @@ def test_without_housing_and_with_markup_in_names():
     p = parse(text)
     assert p.errors == [] and "table-bolts" not in p.tables and "table-reactions" in p.tables
     assert "<script>alert" not in text and "&lt;script&gt;alert(&quot;x&quot;)&lt;/script&gt; &amp; co" in text
+
+
+def test_margins_carry_the_sizing_the_cli_prints(tmp_path):
+    """The report's sizing column holds, row by row, the sizing of the CLI's
+    JSON margins (d, d_min; C, C needed; C0, C0 needed) in the same units."""
+    import contextlib
+    import io
+    import json
+
+    from loadscope.cli import main
+    from loadscope.spec import dump_snapshot
+
+    path = tmp_path / "demo.json"
+    path.write_text(dump_snapshot(demo_snapshot()))
+    out = io.StringIO()
+    with contextlib.redirect_stdout(out):
+        assert main(["solve", str(path), "--format", "json", "--units", "us"]) == 0
+    assert main(["solve", str(path), "--format", "html", "--units", "us", "--out", str(tmp_path / "r.html")]) == 0
+    cli = json.loads(out.getvalue())["ratings"]
+    p = parse((tmp_path / "r.html").read_text())
+    tables = {c["name"]: c["margins"] for c in cli["cases"]} | {"duty cycle": cli["duty_cycle"]["margins"]}
+    for name, rows in tables.items():
+        t = p.tables["margins-" + "".join(ch if ch.isalnum() else "-" for ch in name)]
+        col = [h for h, _ in t[0]].index("sizing")
+        assert [r[col][0] for r in t[1:]] == [r["sizing"] for r in rows], name
+    assert any("d_min" in r["sizing"] and " in " in r["sizing"] for r in tables["duty cycle"])
+    assert any("C needed" in r["sizing"] and "lbf" in r["sizing"] for r in tables["duty cycle"])

@@ -218,3 +218,17 @@ def test_every_2d_figure_carries_the_caution(demo):
                  sweep_plot([0, 1], {"a": [0, 1]}, "x [mm]", "y [N]")):
         assert spec["layout"]["meta"]["caution"] == CAUTION
         assert "qualified engineer" in spec["layout"]["annotations"][-1]["text"]
+
+
+def test_focused_bars_are_those_of_the_chosen_shafts(demo):
+    whole = reaction_bars(demo, parts="components")
+    pair = reaction_bars(demo, parts="components", shafts=["output", "intermediate"])
+    assert pair["data"][0]["x"] == ["intermediate · C", "intermediate · D", "output · E", "output · F"]
+    keep = [whole["data"][0]["x"].index(c) for c in pair["data"][0]["x"]]
+    for a, b in zip(pair["data"], whole["data"]):
+        assert a["y"] == [b["y"][i] for i in keep]
+        assert a["hovertext"] == [b["hovertext"][i] for i in keep]
+    assert pair["layout"]["meta"]["shafts"] == ["intermediate", "output"]
+    assert reaction_bars(demo, shafts=None) == reaction_bars(demo)
+    with pytest.raises(InputError, match="shafts: no shaft 'x'"):
+        reaction_bars(demo, shafts=["x"])

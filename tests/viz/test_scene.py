@@ -299,3 +299,49 @@ def test_bad_arguments_name_the_argument_and_the_accepted_values(demo, kwargs, p
         force_scene(demo, **kwargs)
     assert err.value.path == path and err.value.accepted == accepted
     assert str(err.value).startswith(f"{path}: ") and accepted in str(err.value)
+
+
+def test_a_focus_draws_its_shafts_and_every_arrow_on_them_only(demo):
+    pair = ("input", "intermediate")
+    spec = force_scene(demo, show="both", shafts=pair)
+    scale = spec["layout"]["meta"]["arrow_scale"]
+    size = spec["layout"]["meta"]["size"]
+    assert [t["hovertext"].split(":")[0] for t in spec["data"][:2]] == ["shaft input", "shaft intermediate"]
+    assert spec["data"][2]["name"] == "gears and pulleys"        # trace order as for the whole drive
+    # the kernel's tooth forces on those shafts: both of stage1, and stage2's driver p3 on the intermediate shaft
+    teeth = [t for t in demo.teeth if t.shaft in pair]
+    assert [(t.mesh, t.gear) for t in teeth] == [("stage1", "g2"), ("stage1", "p1"), ("stage2", "p3")]
+    tails, tips = segments(by_name(spec, "tooth forces", "scatter3d"))
+    assert len(tails) == len(teeth)
+    for k, t in enumerate(teeth):
+        np.testing.assert_allclose(tails[k], t.point / MM, rtol=0, atol=1e-12 * size)
+        np.testing.assert_allclose(tips[k] - tails[k], t.force * scale / MM, rtol=0, atol=1e-12 * size)
+    reactions = [r for r in reaction_list(demo) if r[0] in pair]
+    tails, tips = segments(by_name(spec, "bearing reactions", "scatter3d"))
+    assert len(tails) == len(reactions) == 4
+    for k, (_, _, rg) in enumerate(reactions):
+        np.testing.assert_allclose(tips[k] - tails[k], rg * scale / MM, rtol=0, atol=1e-12 * size)
+    rings = by_name(spec, "gears and pulleys", "scatter3d")["hovertext"]
+    assert {t.split(" · ")[0] for t in rings} == set(pair)      # no g4, no sprocket
+    assert by_name(spec, "bearings", "scatter3d")["hovertext"][0].startswith("input · bearing A")
+    assert by_name(spec, "mounting bolts", "scatter3d")["x"] == []        # the housing's, not the pair's
+    assert len(segments(by_name(spec, "strand pulls and loads", "scatter3d"))[0]) == 0   # the sprocket is on output
+    assert "shafts input, intermediate" in spec["layout"]["title"]["text"]
+    # the automatic scale follows what is drawn: the largest arrow shown is arrow_share of the size shown
+    longest = max(float(np.linalg.norm(f)) for f in [t.force for t in teeth] + [r[2] for r in reactions])
+    assert longest * scale / MM == pytest.approx(SIZES["arrow_share"] * size, rel=1e-12)
+
+
+def test_no_focus_is_the_whole_drive_and_a_bad_focus_names_the_shafts(demo):
+    assert force_scene(demo, shafts=None) == force_scene(demo)
+    whole = force_scene(demo)
+    every = force_scene(demo, arrow_scale=whole["layout"]["meta"]["arrow_scale"],
+                        shafts=["output", "intermediate", "input"])       # all of them, in any order
+    # the same hardware and arrows; only the bolts (and the head size, from the size of what is drawn) go
+    kept = [k for k, t in enumerate(whole["data"])
+            if t["name"] != "mounting bolts" and (k < 7 or t.get("mode") == "lines")]
+    assert [every["data"][k] for k in kept] == [whole["data"][k] for k in kept]
+    with pytest.raises(InputError, match=r"shafts: no shaft 'nope' in this drive.*input, intermediate, output"):
+        force_scene(demo, shafts=["input", "nope"])
+    with pytest.raises(InputError, match="shafts: names no shaft"):
+        force_scene(demo, shafts=[])

@@ -73,3 +73,38 @@ def test_shaft_explorer_shows_only_its_margins():
         ex = ShaftExplorer(shaft="output", rating="sync")
     assert ex.margins.rows
     assert {r["component"].split("/")[0].split(" at ")[0] for r in ex.margins.rows} == {"output"}
+
+
+def _cli_margins(tmp_path, units: str) -> dict:
+    """What `loadscope solve --format json` prints for the demo drive: the oracle of the sizing column."""
+    import contextlib
+    import io
+    import json
+
+    from loadscope.cli import main
+    from loadscope.spec import demo_snapshot, dump_snapshot
+
+    path = tmp_path / "demo.json"
+    path.write_text(dump_snapshot(demo_snapshot()))
+    out = io.StringIO()
+    with contextlib.redirect_stdout(out):
+        assert main(["solve", str(path), "--format", "json", "--units", units]) == 0
+    return json.loads(out.getvalue())["ratings"]
+
+
+def test_sizing_column_shows_what_the_cli_prints_in_both_unit_systems(rated, tmp_path):
+    import html
+    import re
+
+    ex = rated
+    for units, length, force in (("si", "mm", "N"), ("us", "in", "lbf")):
+        ex.state.units = units
+        cli = _cli_margins(tmp_path, units)
+        for case in [*(c["name"] for c in cli["cases"]), DUTY_CYCLE]:
+            ex.margins.case.value = case
+            want = next((c["margins"] for c in cli["cases"] if c["name"] == case), cli["duty_cycle"]["margins"])
+            cells = [html.unescape(c) for c in re.findall(r"<td class='sizing'>(.*?)</td>", ex.margins.html.value)]
+            assert cells == [r["sizing"] for r in want], (units, case)
+        assert "<th>sizing</th>" in ex.margins.html.value
+        assert any(re.search(rf"d_min [\d.,]+ {length}", c) for c in cells)        # sections: d_min
+        assert any(re.search(rf"C needed [\d.,]+ {force}", c) for c in cells)      # bearings: the C needed
