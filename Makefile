@@ -7,7 +7,7 @@ STAMP  := $(VENV)/.installed-$(shell cat pyproject.toml | cksum | cut -d' ' -f1)
 
 CHROMIUM := /usr/bin/chromium
 
-.PHONY: demo test lint bench clean venv chromium
+.PHONY: demo test lint bench clean venv chromium plotly-basic
 
 $(BIN)/python:
 	$(PYTHON) -m venv $(VENV)
@@ -41,6 +41,10 @@ bench: venv
 	$(BIN)/python bench/bench_solve.py
 	$(BIN)/python bench/bench_widgets.py
 	$(BIN)/python bench/bench_dashboard.py
+
+# fetches plotly.js's 2D bundle again (npm) at the installed plotly's plotly.js version
+plotly-basic: venv
+	PYTHON=$(BIN)/python tools/fetch_plotly_basic.sh
 
 clean:
 	rm -rf $(VENV) build *.egg-info .pytest_cache .mypy_cache .ruff_cache

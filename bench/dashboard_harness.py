@@ -26,8 +26,8 @@ from typing import Any
 import psutil
 
 CHROMIUM = "/usr/bin/chromium"
-#: flags that work as root, headless, offline; WebGL renders through SwiftShader
-#: (``--disable-software-rasterizer`` would break the 3D scene)
+#: flags that work as root, headless, offline (the pages need no WebGL: the 3D
+#: scene is drawn on a 2D canvas)
 CHROMIUM_ARGS = [
     "--no-sandbox", "--disable-gpu", "--disable-dev-shm-usage", "--disable-quic", "--no-first-run",
     "--disable-background-networking", "--disable-component-update", "--disable-sync",
@@ -152,6 +152,48 @@ def launch_browser(env: dict[str, str]) -> Iterator[Any]:
 
 _REVS = "() => [...document.querySelectorAll('[data-rev]')].map(e => Number(e.dataset.rev))"
 
+#: an init script that counts the WebGL contexts a page asks for (``window.__webglContexts``)
+COUNT_WEBGL = """(() => {
+  window.__webglContexts = 0;
+  for (const C of [window.HTMLCanvasElement, window.OffscreenCanvas]) {
+    if (!C) continue;
+    const get = C.prototype.getContext;
+    C.prototype.getContext = function (kind, ...rest) {
+      if (/webgl/i.test(String(kind))) window.__webglContexts += 1;
+      return get.call(this, kind, ...rest);
+    };
+  }
+})();"""
+
+#: CSS pixel [x, y] of the first 3 x 3 patch of colour ``rgb`` on the force scene's canvas
+_SCENE_SPOT = """(rgb) => {
+  const c = document.querySelector('[data-figure=force_scene] canvas');
+  const w = c.width, h = c.height, d = c.getContext('2d').getImageData(0, 0, w, h).data;
+  const near = (x, y) => { const i = 4 * (y * w + x);
+    return Math.abs(d[i] - rgb[0]) <= 10 && Math.abs(d[i + 1] - rgb[1]) <= 10 && Math.abs(d[i + 2] - rgb[2]) <= 10; };
+  for (let y = 2; y < h - 2; y++) for (let x = 2; x < w - 2; x++) {
+    let all = true;
+    for (let dy = -1; dy <= 1 && all; dy++) for (let dx = -1; dx <= 1 && all; dx++) all = near(x + dx, y + dy);
+    if (all) return [x * c.clientWidth / w, y * c.clientHeight / h];
+  }
+  return null;
+}"""
+
+#: the force scene's canvas: share of pixels unlike its corner (the
+#: background), pixels near ``rgb`` (within 10 per channel), and a hash
+_SCENE_PIXELS = """(rgb) => {
+  const c = document.querySelector('[data-figure=force_scene] canvas');
+  if (!c || !c.width) return null;
+  const d = c.getContext('2d').getImageData(0, 0, c.width, c.height).data;
+  let drawn = 0, near = 0, hash = 0;
+  for (let i = 0; i < d.length; i += 4) {
+    if (d[i] !== d[0] || d[i + 1] !== d[1] || d[i + 2] !== d[2]) drawn++;
+    if (Math.abs(d[i] - rgb[0]) <= 10 && Math.abs(d[i + 1] - rgb[1]) <= 10 && Math.abs(d[i + 2] - rgb[2]) <= 10) near++;
+    hash = (Math.imul(hash, 31) + d[i] + 7 * d[i + 1] + 13 * d[i + 2]) >>> 0;
+  }
+  return {drawn: drawn / (d.length / 4), near, hash};
+}"""
+
 
 class Dashboard:
     """One dashboard page in the browser."""
@@ -184,9 +226,27 @@ class Dashboard:
                                   ".map(e => e.dataset.error || '').filter(Boolean)")
 
     def plotted(self) -> list[int]:
-        """How many SVG/WebGL plot layers each figure view holds (drawn by plotly)."""
+        """How many plot layers each figure view holds (plotly's SVG, or the 3D scene's canvas)."""
         return self.page.evaluate("() => [...document.querySelectorAll('[data-rev]')]"
                                   ".map(e => e.querySelectorAll('.main-svg, canvas').length)")
+
+    def webgl_contexts(self) -> int:
+        """WebGL contexts the page asked for (needs ``COUNT_WEBGL`` as an init script)."""
+        return self.page.evaluate("() => window.__webglContexts")
+
+    def scene_pixels(self, rgb: tuple[int, int, int]) -> dict[str, float] | None:
+        """What the force scene's canvas shows: ``drawn`` (share of pixels
+        unlike the background), ``near`` (pixels of colour ``rgb``) and a ``hash``."""
+        return self.page.evaluate(_SCENE_PIXELS, list(rgb))
+
+    def scene_spot(self, rgb: tuple[int, int, int]) -> tuple[float, float] | None:
+        """Page coordinates of a point of the force scene's canvas inside a
+        3 x 3 pixel patch of colour ``rgb`` (the middle of a drawn line), or None."""
+        spot = self.page.evaluate(_SCENE_SPOT, list(rgb))
+        if spot is None:
+            return None
+        box = self.page.locator("[data-figure=force_scene] canvas").bounding_box()
+        return box["x"] + spot[0], box["y"] + spot[1]
 
     def table_text(self) -> str:
         return self.page.locator(".loadscope-table").first.inner_text()

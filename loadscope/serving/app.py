@@ -3,9 +3,10 @@
 Voila itself does the serving; this subclass adds two things its configuration
 cannot express:
 
-* a static, browser-cacheable route for the ``plotly.min.js`` shipped in the
-  plotly package, so a page loads plotly.js once per browser instead of once
-  per figure over the websocket (the figure views find it through
+* a static, browser-cacheable route for plotly.js's 2D bundle shipped in
+  loadscope (``loadscope.vendor.PLOTLY_BASIC``; the pages draw their 3D scene
+  without plotly.js), so a page loads plotly.js once per browser instead of
+  once per figure over the websocket (the figure views find it through
   ``LOADSCOPE_PLOTLY_URL``);
 * the ``_xsrf`` cookie on every dashboard page. Voila's page sends a shutdown
   beacon when it closes, but the beacon is refused (403) while the cookie is
@@ -22,39 +23,41 @@ alone.
 
 from __future__ import annotations
 
+import re
 from pathlib import Path
 from typing import Any
 
 import nbformat
-import plotly
 import tornado.web
 from jupyter_server.utils import url_path_join
 from voila.app import Voila
 from voila.tornado.handler import TornadoVoilaHandler
 
+from ..vendor import PLOTLY_BASIC, js_version
+
 #: the route of the static plotly.js, under the server's base URL
 PLOTLY_ROUTE = "loadscope/static/"
-PLOTLY_FILE = "plotly.min.js"
+PLOTLY_FILE = PLOTLY_BASIC.name
 
 
 def plotly_bundle() -> Path:
-    """The ``plotly.min.js`` shipped inside the installed plotly package."""
-    return Path(plotly.__file__).parent / "package_data" / PLOTLY_FILE
+    """The plotly.js bundle the pages load (2D traces only)."""
+    return PLOTLY_BASIC
 
 
 def plotly_url(base_url: str = "/") -> str:
     """Absolute path (under ``base_url``) the page loads plotly.js from; the
     version in the query makes it safe to cache for good.
 
-    >>> plotly_url("/team/").startswith("/team/loadscope/static/plotly.min.js?v=")
+    >>> plotly_url("/team/").startswith("/team/loadscope/static/plotly-basic.min.js?v=")
     True
     """
-    return url_path_join(base_url, PLOTLY_ROUTE, PLOTLY_FILE) + f"?v={plotly.__version__}"
+    return url_path_join(base_url, PLOTLY_ROUTE, PLOTLY_FILE) + f"?v={js_version(PLOTLY_BASIC)}"
 
 
 class _PlotlyHandler(tornado.web.StaticFileHandler):
-    """Serves the one plotly.min.js file; cached by the browser for a year
-    (the URL carries plotly's version, so an upgrade gets a new URL)."""
+    """Serves the one plotly.js file; cached by the browser for a year
+    (the URL carries plotly.js's version, so an upgrade gets a new URL)."""
 
     def get_cache_time(self, path: str, modified: Any, mime_type: str) -> int:
         return 365 * 24 * 3600
@@ -91,6 +94,6 @@ class DashboardServer(Voila):
                 spec = (spec[0], _PageHandler, *spec[2:])
             handlers.append(spec)
         bundle = plotly_bundle()
-        route = url_path_join(self.server_url, PLOTLY_ROUTE, r"(plotly\.min\.js)")
+        route = url_path_join(self.server_url, PLOTLY_ROUTE, "(" + re.escape(PLOTLY_FILE) + ")")
         handlers.insert(0, (route, _PlotlyHandler, {"path": str(bundle.parent)}))
         return handlers

@@ -8,6 +8,8 @@
 // Messages from Python: {"kind": "figure", rev, figure} and
 // {"kind": "delta", rev, base, data: [per-trace changes], layout: {changes}}.
 // The element carries data-rev = the revision on screen (browser tests wait on it).
+// A figure of 3D traces only is drawn by SceneView (scene3d.js, bundled in
+// front of this file by plotview.py) on a canvas, without plotly.js.
 
 const KEY = "__loadscopePlotly";
 const PLOTLY_WAIT_MS = 15000; // how long one request for the bundle may take
@@ -113,6 +115,7 @@ function render({ model, el }) {
   let drawing = Promise.resolve();
   let alive = true;
   let failures = 0;
+  let scene = null; // a SceneView (scene3d.js) while the figure is 3D
 
   const ask = () => {
     if (!asked) {
@@ -121,19 +124,43 @@ function render({ model, el }) {
     }
   };
 
+  const done = (rev, fig) => {
+    failures = 0;
+    delete el.dataset.error;
+    el.dataset.rev = String(rev);
+    el.dataset.figure = (fig.layout.meta && fig.layout.meta.figure) || "";
+  };
+
   const draw = () => {
     const rev = shown;
     const fig = spec;
+    if (isSceneFigure(fig)) {
+      // our canvas renderer: no plotly.js, no WebGL; a delta is one repaint
+      drawing = drawing.then(() => {
+        if (!alive || fig !== spec || rev !== shown) return;
+        if (!scene) {
+          if (window.Plotly && div.isConnected) window.Plotly.purge(div);
+          div.style.display = "none";
+          scene = new SceneView(el);
+        }
+        scene.update(fig);
+        done(rev, fig);
+      }).catch((err) => {
+        el.dataset.error = String(err && err.message ? err.message : err);
+        console.error("loadscope PlotView:", err);
+      });
+      return;
+    }
+    if (scene) {
+      scene.destroy();
+      scene = null;
+      div.style.display = "";
+    }
     drawing = drawing
       .then(() => loadPlotly(model))
       .then((Plotly) => {
         if (!alive || fig !== spec || rev !== shown) return; // a newer state follows
-        return Plotly.react(div, fig.data, fig.layout, { responsive: true, displaylogo: false }).then(() => {
-          failures = 0;
-          delete el.dataset.error;
-          el.dataset.rev = String(rev);
-          el.dataset.figure = (fig.layout.meta && fig.layout.meta.figure) || "";
-        });
+        return Plotly.react(div, fig.data, fig.layout, { responsive: true, displaylogo: false }).then(() => done(rev, fig));
       })
       .catch((err) => {
         el.dataset.error = String(err && err.message ? err.message : err);
@@ -174,6 +201,7 @@ function render({ model, el }) {
   return () => {
     alive = false;
     model.off("msg:custom", onMsg);
+    if (scene) scene.destroy();
     if (window.Plotly && div.isConnected) window.Plotly.purge(div);
   };
 }

@@ -12,7 +12,12 @@ once per page, shared by every view:
    ``LOADSCOPE_PLOTLY_URL``; a relative URL is resolved against the page's base
    URL), a static, cacheable file;
 3. else it asks once with ``{"kind": "need_plotly"}`` and Python replies with
-   the bundle shipped in the plotly package as one binary buffer.
+   the bundle as one binary buffer.
+
+The bundle is plotly.js's 2D build (``loadscope.vendor.PLOTLY_BASIC``, 1.2 MB
+instead of 4.8 MB): a figure made only of 3D traces (the force scene) is drawn
+by the view's own canvas renderer (``scene3d.js``), without plotly.js and
+without WebGL.
 
 The figure itself travels in custom messages: a view asks
 ``{"kind": "need_figure"}`` on render and gets the full spec; a change sends
@@ -38,6 +43,7 @@ import numpy as np
 import traitlets
 
 from ..errors import InputError
+from ..vendor import PLOTLY_BASIC
 from ..viz import figure_update
 
 #: significant digits of the floats sent to the browser (display only)
@@ -52,11 +58,17 @@ PLOTLY_URL_ENV = "LOADSCOPE_PLOTLY_URL"
 
 @functools.lru_cache(maxsize=1)
 def plotly_bundle() -> bytes:
-    """The minified plotly.js shipped inside the plotly Python package."""
-    import plotly
+    """plotly.js's 2D bundle shipped in loadscope (``loadscope.vendor``): the
+    views draw only 2D figures with plotly.js, the 3D scene on their own."""
+    return PLOTLY_BASIC.read_bytes()
 
-    path = Path(plotly.__file__).parent / "package_data" / "plotly.min.js"
-    return path.read_bytes()
+
+def _esm_source() -> str:
+    """The view's JavaScript module: the scene renderer (``scene3d.js``, no
+    exports) in front of ``plotview.js``, which uses it; anywidget takes one
+    module text."""
+    here = Path(__file__).parent
+    return "\n".join((here / name).read_text(encoding="utf-8") for name in ("scene3d.js", "plotview.js"))
 
 
 def _round(value: float) -> float:
@@ -162,7 +174,7 @@ class PlotView(anywidget.AnyWidget):
     whole figure; later ones send only what changed.
     """
 
-    _esm = Path(__file__).with_name("plotview.js")
+    _esm = _esm_source()
     plotly_url = traitlets.Unicode(help="where the page loads plotly.js from; empty: ask this kernel").tag(sync=True)
     rev = traitlets.Int(0, help="revision of the current figure; the page shows it in data-rev").tag(sync=True)
 
@@ -206,7 +218,7 @@ class PlotView(anywidget.AnyWidget):
         if kind == "need_figure":
             self._send_figure()
         elif kind == "need_plotly":
-            # ~5 MB: at most once per PLOTLY_RESEND seconds per view, whatever the page asks
+            # ~1.2 MB: at most once per PLOTLY_RESEND seconds per view, whatever the page asks
             now = time.monotonic()
             if now - self._plotly_sent >= PLOTLY_RESEND:
                 self._plotly_sent = now

@@ -1,5 +1,5 @@
-"""Each dashboard in a real browser (headless Debian chromium, software
-WebGL): it renders its widgets and figures, a slider changes the numbers and
+"""Each dashboard in a real browser (headless Debian chromium): it renders
+its widgets and figures without asking for WebGL, a slider changes the numbers and
 every plot, a saved snapshot opens back to the same state, and a broken file
 shows its message and keeps the state. Screenshots go to artifacts/."""
 
@@ -8,9 +8,10 @@ from __future__ import annotations
 import json
 
 import pytest
-from dashboard_harness import DASHBOARDS, FIGURES, Dashboard
+from dashboard_harness import COUNT_WEBGL, DASHBOARDS, FIGURES, Dashboard
 
 from loadscope import CAUTION, spec
+from loadscope.viz.style import PALETTE
 
 pytestmark = pytest.mark.browser
 
@@ -35,6 +36,7 @@ def board(request, server, browser):
     """One page per dashboard, shared by the tests below in order (a page
     load costs seconds of CPU in a software-rendering browser)."""
     context = browser.new_context(viewport={"width": 1400, "height": 1000}, accept_downloads=True)
+    context.add_init_script(COUNT_WEBGL)
     page = Dashboard.open(context, server, request.param)
     yield page
     page.close()
@@ -49,6 +51,7 @@ def test_page_renders_its_widgets_and_figures(board, artifacts):
     assert "SR-17" in page_text                      # the demo drive's name
     assert CAUTION.split(".")[0] in page_text        # the usual caution
     assert board.param(SLIDER).count() == 1
+    assert board.webgl_contexts() == 0              # the 3D scene is drawn on a 2D canvas
     board.screenshot(artifacts / f"dashboard-{board.name}.png")
 
 
@@ -116,3 +119,51 @@ def test_broken_snapshot_shows_its_error_and_keeps_the_state(board, tmp_path):
         "() => !document.querySelector('.loadscope-message').innerText.includes('pressure_angle')", timeout=20_000)
     assert "JSON" in board.message()
     assert board.table_text() == table and board.revs() == revs
+
+
+def _rgb(hex_colour: str) -> tuple[int, int, int]:
+    return tuple(int(hex_colour[i:i + 2], 16) for i in (1, 3, 5))  # type: ignore[return-value]
+
+
+def test_scene_draws_the_drive_and_follows_slider_drag_and_reset(board):
+    """The force scene's own canvas renderer: the drive and its applied-load
+    arrows are on the canvas; a slider step and a drag each change the
+    picture; a double click brings back the picture from before the drag;
+    hovering an arrow shows its text."""
+    if board.page.locator("[data-figure=force_scene]").count() == 0:
+        pytest.skip(f"{board.name} shows no force scene")
+    tooth = _rgb(PALETTE["applied"])
+    before = board.scene_pixels(tooth)
+    assert before is not None and before["drawn"] > 0.05, before    # hardware, axes and arrows drawn
+    pulls = board.scene_pixels(_rgb(PALETTE["other_load"]))
+    assert before["near"] + pulls["near"] > 50, (before, pulls)      # applied-load arrows in their colours
+
+    revs = board.revs()
+    board.move_slider(SLIDER, 3)
+    board.wait_revs_above(revs)
+    board.settle()
+    moved = board.scene_pixels(tooth)
+    assert moved["hash"] != before["hash"]
+
+    box = board.page.locator("[data-figure=force_scene] canvas").bounding_box()
+    x, y = box["x"] + box["width"] / 2, box["y"] + box["height"] / 2
+    mouse = board.page.mouse
+    mouse.move(x, y)
+    mouse.down()
+    mouse.move(x + 90, y + 30, steps=5)
+    mouse.up()
+    board.page.wait_for_timeout(300)
+    turned = board.scene_pixels(tooth)
+    assert turned["hash"] != moved["hash"] and turned["drawn"] > 0.05
+
+    mouse.dblclick(x + 90, y + 30)
+    board.page.wait_for_timeout(300)
+    assert board.scene_pixels(tooth)["hash"] == moved["hash"]
+
+    # hover on an applied-load arrow shows that load's text (both kinds carry "|F|")
+    spot = board.scene_spot(_rgb(PALETTE["other_load"])) or board.scene_spot(tooth)
+    assert spot is not None
+    mouse.move(*spot)
+    hover = board.page.locator("[data-figure=force_scene] .loadscope-scene-hover")
+    hover.wait_for(state="visible", timeout=5_000)
+    assert "|F|" in hover.inner_text()

@@ -52,7 +52,7 @@ def test_server_listens_on_loopback_only(server):
 
 
 def test_plotly_js_is_a_static_file_cached_for_good(server):
-    req = urllib.request.Request(server.url + "loadscope/static/plotly.min.js?v=1", method="HEAD")
+    req = urllib.request.Request(server.url + "loadscope/static/plotly-basic.min.js?v=1", method="HEAD")
     with urllib.request.urlopen(req, timeout=30) as r:
         assert r.status == 200
         assert "immutable" in r.headers["Cache-Control"] and "max-age=31536000" in r.headers["Cache-Control"]
@@ -65,7 +65,7 @@ def test_page_loads_plotly_from_the_static_route(server, browser):
     try:
         board = Dashboard.open(context, server, "shaft")
         urls = board.page.evaluate("() => performance.getEntriesByType('resource').map(e => e.name)")
-        assert [u for u in urls if "/loadscope/static/plotly.min.js?v=" in u]
+        assert [u for u in urls if "/loadscope/static/plotly-basic.min.js?v=" in u]
         assert not [u for u in urls if "jupyterlab-plotly" in u]    # plotly's own lab extension stays out
         board.close()
     finally:

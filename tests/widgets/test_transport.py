@@ -7,6 +7,7 @@ import numpy as np
 import pytest
 from widget_drives import demo_with, solve_snapshot
 
+from loadscope.vendor import PLOTLY_BASIC, installed_plotly_js, js_version
 from loadscope.viz import figure_update, reaction_bars, shaft_diagrams
 from loadscope.widgets import PlotView, apply_update
 from loadscope.widgets.capture import capture_comms
@@ -62,6 +63,16 @@ def test_need_plotly_sends_the_bundle_once_in_a_while(specs):
     assert sent[0].data["content"] == {"kind": "plotly"}
     assert sent[0].buffers == [plotly_bundle()]
     assert plotly_bundle().startswith(b"/**") and len(plotly_bundle()) > 1_000_000
+
+
+def test_the_pages_plotly_js_is_the_2d_bundle_of_the_installed_plotly_version():
+    # The HTML report embeds the installed plotly's full plotly.js; the pages load the vendored
+    # 2D bundle. After a plotly upgrade, `make plotly-basic` fetches the matching one.
+    assert js_version(PLOTLY_BASIC) == js_version(installed_plotly_js())
+    head = plotly_bundle()[:200].decode()
+    assert "(basic - minified)" in head and "MIT" in head
+    assert len(plotly_bundle()) < len(installed_plotly_js().read_bytes()) / 3
+    assert (PLOTLY_BASIC.parent / "plotly-basic.LICENSE").read_text().startswith("MIT License")
 
 
 @pytest.mark.parametrize("content", [
