@@ -392,7 +392,7 @@ def force_scene(result: DriveResult, units: str = "si", show: str = "applied",
                          f"shear {number(convert(float(h.bolts.shear[k]), units, 'force'))} {fu}")
     bd = disp(bp)
     data.append({"type": "scatter3d", "mode": "markers", "name": "mounting bolts", "legendgroup": "bolts",
-                 "x": bd[:, 0].tolist(), "y": bd[:, 1].tolist(), "z": bd[:, 2].tolist(),
+                 "showlegend": bool(bolts), "x": bd[:, 0].tolist(), "y": bd[:, 1].tolist(), "z": bd[:, 2].tolist(),
                  "marker": {"color": PALETTE["bolt"], "size": SIZES["bolt_marker"], "symbol": "diamond"},
                  "hoverinfo": "text", "hovertext": bolt_text})
 
@@ -410,8 +410,10 @@ def force_scene(result: DriveResult, units: str = "si", show: str = "applied",
     for key, (tails, forces, texts) in groups.items():
         line, head = _arrows(disp(tails), disp(forces * scale), head_len, texts)
         vis: bool | str = True if visible[key] else "legendonly"
+        # a kind of load with no arrow in this view (the number depends on the topology only) keeps its trace
+        # but leaves the legend
         data.append({"type": "scatter3d", "mode": "lines", "name": names[key], "legendgroup": key,
-                     "visible": vis, **line, "hoverinfo": "text",
+                     "showlegend": len(texts) > 0, "visible": vis, **line, "hoverinfo": "text",
                      "line": {"color": colours[key], "width": SIZES["arrow_width"]}})
         data.append({"type": "mesh3d", "name": names[key], "legendgroup": key, "showlegend": False,
                      "visible": vis, **head, "hoverinfo": "text", "color": colours[key], "flatshading": True})

@@ -327,6 +327,11 @@ def test_a_focus_draws_its_shafts_and_every_arrow_on_them_only(demo):
     assert by_name(spec, "mounting bolts", "scatter3d")["x"] == []        # the housing's, not the pair's
     assert len(segments(by_name(spec, "strand pulls and loads", "scatter3d"))[0]) == 0   # the sprocket is on output
     assert "shafts input, intermediate" in spec["layout"]["title"]["text"]
+    # the legend names only what this view draws (common practice: no key for an empty layer)
+    legend = {t["name"] for t in spec["data"] if t.get("showlegend", True)}
+    assert "mounting bolts" not in legend and "strand pulls and loads" not in legend
+    whole = {t["name"] for t in force_scene(demo, show="both")["data"] if t.get("showlegend", True)}
+    assert {"mounting bolts", "strand pulls and loads", "tooth forces", "bearing reactions"} <= whole
     # the automatic scale follows what is drawn: the largest arrow shown is arrow_share of the size shown
     longest = max(float(np.linalg.norm(f)) for f in [t.force for t in teeth] + [r[2] for r in reactions])
     assert longest * scale / MM == pytest.approx(SIZES["arrow_share"] * size, rel=1e-12)
