@@ -11,6 +11,7 @@ from typing import Any
 import numpy as np
 
 from .. import CAUTION
+from ..errors import InputError
 from ..kernel.solve import DriveResult
 from .units import convert, label
 
@@ -105,7 +106,6 @@ def mesh_summary(result: DriveResult, mesh_id: str, units: str = "si") -> dict[s
     """
     flows = {fl.geometry.mesh_id: fl for fl in result.train.meshes}
     if mesh_id not in flows:
-        from ..errors import InputError
         raise InputError("mesh", f"no mesh {mesh_id!r} in this drive", ", ".join(flows) or "(no meshes)")
     fl = flows[mesh_id]
     g = fl.geometry

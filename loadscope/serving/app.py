@@ -40,11 +40,6 @@ PLOTLY_ROUTE = "loadscope/static/"
 PLOTLY_FILE = PLOTLY_BASIC.name
 
 
-def plotly_bundle() -> Path:
-    """The plotly.js bundle the pages load (2D traces only)."""
-    return PLOTLY_BASIC
-
-
 def plotly_url(base_url: str = "/") -> str:
     """Absolute path (under ``base_url``) the page loads plotly.js from; the
     version in the query makes it safe to cache for good.
@@ -93,7 +88,6 @@ class DashboardServer(Voila):
             if len(spec) > 1 and spec[1] is TornadoVoilaHandler:
                 spec = (spec[0], _PageHandler, *spec[2:])
             handlers.append(spec)
-        bundle = plotly_bundle()
         route = url_path_join(self.server_url, PLOTLY_ROUTE, "(" + re.escape(PLOTLY_FILE) + ")")
-        handlers.insert(0, (route, _PlotlyHandler, {"path": str(bundle.parent)}))
+        handlers.insert(0, (route, _PlotlyHandler, {"path": str(PLOTLY_BASIC.parent)}))
         return handlers
